@@ -1,0 +1,14 @@
+/**
+ * The ordered list of versioned migrations. Add a file `NNNN-name.ts` exporting `up`/`down` and
+ * list it here; umzug records what ran in the `lapbench_migrations` table.
+ */
+import type { QueryInterface } from "sequelize";
+import * as domain from "./0002-domain";
+
+export interface Migration {
+  name: string;
+  up: (p: { context: QueryInterface }) => Promise<void>;
+  down: (p: { context: QueryInterface }) => Promise<void>;
+}
+
+export const migrations: Migration[] = [{ name: "0002-domain", ...domain }];

@@ -1,0 +1,42 @@
+import { defineConfig } from "vitest/config";
+import path from "node:path";
+
+const alias = { "@": path.resolve(__dirname), "server-only": path.resolve(__dirname, "tests/setup/server-only-stub.ts") };
+
+export default defineConfig({
+  resolve: { alias },
+  test: {
+    projects: [
+      {
+        extends: true,
+        test: { name: "unit", include: ["tests/unit/**/*.test.ts"], environment: "node" },
+      },
+      {
+        extends: true,
+        test: {
+          name: "integration",
+          include: ["tests/integration/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/setup/global-db.ts"],
+          setupFiles: ["tests/setup/integration-env.ts"],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          // Two cores: files share one MariaDB; keep the pressure sane.
+          maxWorkers: 2,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: "e2e",
+          include: ["tests/e2e/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/setup/global-app.ts"],
+          testTimeout: 120_000,
+          hookTimeout: 600_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});

@@ -13,7 +13,7 @@ export interface OutgoingMail {
   html?: string;
 }
 
-let transport: nodemailer.Transporter | undefined;
+let transport: ReturnType<typeof nodemailer.createTransport> | undefined;
 
 export async function sendMail(mail: OutgoingMail): Promise<void> {
   transport ??= nodemailer.createTransport({

@@ -3,6 +3,7 @@
  * list it here; umzug records what ran in the `lapbench_migrations` table.
  */
 import type { QueryInterface } from "sequelize";
+import * as auth from "./0001-auth";
 import * as domain from "./0002-domain";
 
 export interface Migration {
@@ -11,4 +12,7 @@ export interface Migration {
   down: (p: { context: QueryInterface }) => Promise<void>;
 }
 
-export const migrations: Migration[] = [{ name: "0002-domain", ...domain }];
+export const migrations: Migration[] = [
+  { name: "0001-auth", ...auth },
+  { name: "0002-domain", ...domain },
+];

@@ -1,7 +1,10 @@
 import { defineConfig } from "vitest/config";
 import path from "node:path";
+import { fileURLToPath } from "node:url";
 
-const alias = { "@": path.resolve(__dirname), "server-only": path.resolve(__dirname, "tests/setup/server-only-stub.ts") };
+const here = path.dirname(fileURLToPath(import.meta.url));
+
+const alias = { "@": here, "server-only": path.join(here, "tests/setup/server-only-stub.ts") };
 
 export default defineConfig({
   resolve: { alias },

@@ -1,0 +1,80 @@
+/**
+ * The better-auth options every Lapbench auth instance shares (the Next route's `auth` and the
+ * scripts'/tests' `createAuth`). The database, secret and base URL are added by the callers, so
+ * importing this file reads no secrets and opens no connection.
+ */
+import type { BetterAuthOptions } from "better-auth";
+import { organization } from "better-auth/plugins/organization";
+import { config } from "../config";
+import { ac, roles } from "./permissions";
+
+export const MIN_PASSWORD_LENGTH = 10;
+export const INVITATION_EXPIRES_S = 7 * 24 * 60 * 60;
+export const SIGN_IN_RATE_LIMIT = { window: 60, max: 10 };
+
+/** The accept link in invitation e-mails; app/accept-invitation/[id] handles it. */
+export function invitationUrl(invitationId: string): string {
+  return `${config.appUrl}/accept-invitation/${encodeURIComponent(invitationId)}`;
+}
+
+function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+}
+
+// Imported on use: send-mail is server-only, and scripts that never send mail (seeding) must not
+// need the Next server build conditions just to load the auth options.
+async function mail(to: string, subject: string, text: string, linkUrl: string, linkLabel: string) {
+  const { sendMail } = await import("../mail/send-mail");
+  const html = `<p>${escapeHtml(text.split("\n")[0])}</p><p><a href="${escapeHtml(linkUrl)}">${escapeHtml(linkLabel)}</a></p>`;
+  await sendMail({ to, subject, text, html });
+}
+
+// Secure cookies need https: the demo runs `next start` on http://localhost, where a Secure
+// cookie would never come back and nobody could stay signed in.
+const useSecureCookies = process.env.NODE_ENV === "production" && config.appUrl.startsWith("https://");
+
+export const authOptions = {
+  appName: "Lapbench",
+  emailAndPassword: {
+    enabled: true,
+    minPasswordLength: MIN_PASSWORD_LENGTH,
+    async sendResetPassword({ user, url }) {
+      await mail(
+        user.email,
+        "Reset your Lapbench password",
+        `Someone asked to reset the password of your Lapbench account. If it was you, open this link (valid for one hour):\n${url}\nIf not, ignore this e-mail.`,
+        url,
+        "Choose a new password",
+      );
+    },
+  },
+  rateLimit: {
+    enabled: true,
+    // In the database so the limit holds across the web process and any other process.
+    storage: "database",
+    customRules: { "/sign-in/email": SIGN_IN_RATE_LIMIT },
+  },
+  advanced: {
+    useSecureCookies,
+    defaultCookieAttributes: { sameSite: "lax", httpOnly: true },
+  },
+  trustedOrigins: [...new Set([config.appUrl, `http://127.0.0.1:${config.appPort}`, `http://localhost:${config.appPort}`])],
+  plugins: [
+    organization({
+      ac,
+      roles,
+      creatorRole: "owner",
+      invitationExpiresIn: INVITATION_EXPIRES_S,
+      async sendInvitationEmail({ id, email, role, organization: team, inviter }) {
+        const url = invitationUrl(id);
+        await mail(
+          email,
+          `Join ${team.name} on Lapbench`,
+          `${inviter.user.name} invited you to the team "${team.name}" on Lapbench as ${role}. Accept within 7 days:\n${url}`,
+          url,
+          "Accept the invitation",
+        );
+      },
+    }),
+  ],
+} satisfies BetterAuthOptions;

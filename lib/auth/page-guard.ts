@@ -1,0 +1,30 @@
+import "server-only";
+/** The guard for server components and server actions: same checks, page-shaped outcomes. */
+import { headers } from "next/headers";
+import { redirect, notFound } from "next/navigation";
+import { requireTeam, type GuardOptions, type TeamContext } from "./guard";
+import { HttpError } from "@/lib/http/http-error";
+
+export async function pageTeam(opts: GuardOptions = {}, from = "/home"): Promise<TeamContext> {
+  try {
+    return await requireTeam(await headers(), opts);
+  } catch (e) {
+    if (e instanceof HttpError) {
+      if (e.status === 401) redirect(`/sign-in?next=${encodeURIComponent(from)}`);
+      if (e.status === 403 && /not a member of any team/.test(e.message)) redirect("/teams/new");
+      if (e.status === 403) redirect(`/forbidden?from=${encodeURIComponent(from)}`);
+      if (e.status === 404) notFound();
+    }
+    throw e;
+  }
+}
+
+/** For server actions: returns the context or an error message for the form. */
+export async function actionTeam(opts: GuardOptions = {}): Promise<{ ctx: TeamContext; error?: undefined } | { ctx?: undefined; error: string; status: number }> {
+  try {
+    return { ctx: await requireTeam(await headers(), opts) };
+  } catch (e) {
+    if (e instanceof HttpError) return { error: e.message, status: e.status };
+    throw e;
+  }
+}

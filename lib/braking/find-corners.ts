@@ -1,0 +1,73 @@
+export interface FindCornersOptions {
+  /**
+   * A speed minimum is a corner when it is at least this much below the lower of the two
+   * highest speeds either side before a slower point (its prominence), m/s. Default 5 m/s
+   * (18 km/h) — Lapbench's setting: enough to skip a lift on a straight, not a fast kink.
+   */
+  minProminenceMs?: number;
+  /** Two minima closer than this along the lap are one corner, the slower kept (m). Default 40. */
+  minSeparationM?: number;
+}
+
+export interface FoundCorner {
+  /** "Corner 1", "Corner 2" … in lap order; the team renames them. */
+  name: string;
+  index: number;
+  /** Apex: distance of the speed minimum from the lap start (m). */
+  distanceM: number;
+  minSpeedMs: number;
+  prominenceMs: number;
+}
+
+/**
+ * Corners of a track from the reference lap's speed trace: the local minima of speed whose
+ * topographic prominence is at least `minProminenceMs`. `speedMs` and `distanceM` are the
+ * reference lap's samples (distance from the lap's start); NaN samples are skipped.
+ */
+export function findCorners(speedMs: ArrayLike<number>, distanceM: ArrayLike<number>, opts: FindCornersOptions = {}): FoundCorner[] {
+  const minProm = opts.minProminenceMs ?? 5;
+  const minSep = opts.minSeparationM ?? 40;
+  // Compact the finite samples so NaN gaps (slow GPS speed) do not make false minima.
+  const idx: number[] = [];
+  for (let i = 0; i < speedMs.length; i++) if (Number.isFinite(speedMs[i]) && Number.isFinite(distanceM[i])) idx.push(i);
+  const m = idx.length;
+  const v = new Float64Array(m);
+  for (let k = 0; k < m; k++) v[k] = speedMs[idx[k]];
+
+  const found: FoundCorner[] = [];
+  let k = 1;
+  while (k < m - 1) {
+    if (!(v[k] < v[k - 1])) {
+      k++;
+      continue;
+    }
+    // Walk over a flat bottom; a minimum needs a rise after it.
+    let e = k;
+    while (e + 1 < m && v[e + 1] === v[k]) e++;
+    if (e + 1 >= m || !(v[e + 1] > v[k])) {
+      k = e + 1;
+      continue;
+    }
+    const vmin = v[k];
+    let leftMax = vmin;
+    for (let j = k - 1; j >= 0 && v[j] >= vmin; j--) if (v[j] > leftMax) leftMax = v[j];
+    let rightMax = vmin;
+    for (let j = e + 1; j < m && v[j] >= vmin; j++) if (v[j] > rightMax) rightMax = v[j];
+    const prominence = Math.min(leftMax, rightMax) - vmin;
+    if (prominence >= minProm) {
+      const at = idx[(k + e) >> 1];
+      found.push({ name: "", index: at, distanceM: distanceM[at], minSpeedMs: vmin, prominenceMs: prominence });
+    }
+    k = e + 1;
+  }
+  // Merge minima that sit too close together (a double apex reads as one corner).
+  const merged: FoundCorner[] = [];
+  for (const c of found) {
+    const last = merged[merged.length - 1];
+    if (last && c.distanceM - last.distanceM < minSep) {
+      if (c.minSpeedMs < last.minSpeedMs) merged[merged.length - 1] = c;
+    } else merged.push(c);
+  }
+  merged.forEach((c, i) => (c.name = `Corner ${i + 1}`));
+  return merged;
+}

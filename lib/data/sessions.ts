@@ -1,0 +1,56 @@
+import "server-only";
+/** Read access to ride sessions as plain objects, with the role rules of PRODUCT.md §7 applied. */
+import { Op, type WhereOptions } from "sequelize";
+import { initModels, RideSession, Rider, Bike, RaceEvent, type SessionKind, type SessionStatus } from "@/models";
+import type { TeamContext } from "@/lib/auth/guard";
+
+export interface SessionListItem {
+  id: number;
+  title: string;
+  kind: SessionKind;
+  status: SessionStatus;
+  progress: number;
+  statusReason: string | null;
+  startedAt: string | null;
+  createdAt: string;
+  riderName: string | null;
+  bikeName: string | null;
+  eventName: string | null;
+}
+
+/** Riders see their own sessions and those shared with riders; every other role sees all. */
+export async function sessionVisibility(ctx: TeamContext): Promise<WhereOptions> {
+  initModels();
+  const base = { teamId: ctx.teamId };
+  if (ctx.role !== "rider") return base;
+  const mine = await Rider.findAll({ where: { teamId: ctx.teamId, userId: ctx.userId }, attributes: ["id"] });
+  const ids = mine.map((r) => r.id);
+  return { ...base, [Op.or]: [{ sharedWithRiders: true }, ...(ids.length ? [{ riderId: { [Op.in]: ids } }] : [])] };
+}
+
+export async function listRecentSessions(ctx: TeamContext, limit = 20): Promise<SessionListItem[]> {
+  initModels();
+  const rows = await RideSession.findAll({ where: await sessionVisibility(ctx), order: [["createdAt", "DESC"]], limit });
+  const riderIds = [...new Set(rows.map((r) => r.riderId).filter((x): x is number => x != null))];
+  const bikeIds = [...new Set(rows.map((r) => r.bikeId).filter((x): x is number => x != null))];
+  const eventIds = [...new Set(rows.map((r) => r.eventId).filter((x): x is number => x != null))];
+  const [riders, bikes, events] = await Promise.all([
+    riderIds.length ? Rider.findAll({ where: { id: { [Op.in]: riderIds } } }) : [],
+    bikeIds.length ? Bike.findAll({ where: { id: { [Op.in]: bikeIds } } }) : [],
+    eventIds.length ? RaceEvent.findAll({ where: { id: { [Op.in]: eventIds } } }) : [],
+  ]);
+  const name = <T extends { id: number; name: string }>(list: T[], id: number | null) => list.find((x) => x.id === id)?.name ?? null;
+  return rows.map((r) => ({
+    id: r.id,
+    title: r.title ?? `Session ${r.id}`,
+    kind: r.kind,
+    status: r.status,
+    progress: r.progress,
+    statusReason: r.statusReason,
+    startedAt: r.startedAt ? r.startedAt.toISOString() : null,
+    createdAt: r.createdAt.toISOString(),
+    riderName: name(riders, r.riderId),
+    bikeName: name(bikes, r.bikeId),
+    eventName: name(events, r.eventId),
+  }));
+}

@@ -1,0 +1,56 @@
+import type { SessionSeries } from "@/lib/channels/roles";
+import { DEFAULT_THRESHOLDS, type ThresholdKey, type Thresholds } from "./thresholds";
+import type { FindingsContext, LapSpan } from "./types";
+
+export interface DetectorContext {
+  series: SessionSeries;
+  ctx: FindingsContext;
+  th: Thresholds;
+  /** Median sample interval of the master clock (s). */
+  dtS: number;
+  /** Ground speed per sample (m/s): front wheel, else rear wheel, else GPS speed held between fixes; undefined if none. */
+  groundSpeedMs: Float32Array | undefined;
+  lapOf: (timeS: number) => number | null;
+}
+
+function medianStep(t: Float64Array): number {
+  const n = t.length;
+  if (n < 2) return 0;
+  // At most ~100 000 steps, evenly spread, are enough for a median.
+  const stride = Math.max(1, Math.floor((n - 1) / 100000));
+  const steps = new Float64Array(Math.ceil((n - 1) / stride));
+  let k = 0;
+  for (let i = 0; i + 1 < n; i += stride) steps[k++] = t[i + 1] - t[i];
+  const s = steps.subarray(0, k).sort();
+  return k % 2 ? s[k >> 1] : 0.5 * (s[(k >> 1) - 1] + s[k >> 1]);
+}
+
+/** Carry each finite sample forward over the NaNs that follow it (slow channels on a fast clock). */
+export function holdForward(x: Float32Array): Float32Array {
+  const out = new Float32Array(x.length);
+  let last = NaN;
+  for (let i = 0; i < x.length; i++) {
+    if (Number.isFinite(x[i])) last = x[i];
+    out[i] = last;
+  }
+  return out;
+}
+
+function makeLapOf(laps: readonly LapSpan[] | undefined) {
+  const sorted = [...(laps ?? [])].sort((a, b) => a.startTimeS - b.startTimeS);
+  return (t: number): number | null => {
+    for (const l of sorted) if (t >= l.startTimeS && t < l.endTimeS) return l.number;
+    return null;
+  };
+}
+
+/** Thresholds resolved once: team settings over DEFAULT_THRESHOLDS, then the shared series facts. */
+export function buildDetectorContext(series: SessionSeries, ctx: FindingsContext): DetectorContext {
+  const th = {} as Thresholds;
+  for (const key of Object.keys(DEFAULT_THRESHOLDS) as ThresholdKey[]) {
+    th[key] = ctx.thresholds?.[key] ?? DEFAULT_THRESHOLDS[key].value;
+  }
+  const c = series.channels;
+  const groundSpeedMs = c.speed_front ?? c.speed_rear ?? (c.gps_speed ? holdForward(c.gps_speed) : undefined);
+  return { series, ctx, th, dtS: medianStep(series.timeS), groundSpeedMs, lapOf: makeLapOf(ctx.laps) };
+}

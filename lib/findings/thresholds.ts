@@ -1,0 +1,139 @@
+export interface ThresholdDefault {
+  value: number;
+  unit: string;
+  /** One line: why this value. */
+  rationale: string;
+  /** "common practice", "Lapbench default" (our own setting) or a named reference. */
+  source: string;
+}
+
+/**
+ * Default thresholds of the findings engine, each with its reason and where it comes from.
+ * Every one is a setting per bike and track; the Settings screen shows these as the defaults.
+ * Values are SI (Pa, m/s, m, s); the rationale gives the everyday unit.
+ */
+export const DEFAULT_THRESHOLDS = {
+  brakeOnStraightPressurePa: {
+    value: 2e5,
+    unit: "Pa",
+    rationale: "2 bar front pressure is above a resting lever and sensor offset yet far below any real stop; a lever pushed by air at speed can reach it.",
+    source: "common practice",
+  },
+  brakeOnStraightThrottlePct: {
+    value: 50,
+    unit: "%",
+    rationale: "Above half throttle the rider is driving, not braking; pressure then is not meant.",
+    source: "common practice",
+  },
+  brakeOnStraightMinDurationS: {
+    value: 0.1,
+    unit: "s",
+    rationale: "Ignores a single-sample spike from a noisy pressure sensor.",
+    source: "Lapbench default",
+  },
+  revCeilingRpm: {
+    value: 14000,
+    unit: "rpm",
+    rationale: "Rev ceilings for 1000 cc four-cylinder superbikes sit around 14,000–14,300 rpm; set the class's own figure per bike.",
+    source: "common practice",
+  },
+  pitSpeedLimitMs: {
+    value: 60 / 3.6,
+    unit: "m/s",
+    rationale: "60 km/h; pit-lane limits are 40 km/h in some national series and 60 km/h in others — set the track's own.",
+    source: "common practice",
+  },
+  pitOverspeedMinDurationS: {
+    value: 0.1,
+    unit: "s",
+    rationale: "Ignores a single-sample spike of the wheel-speed signal.",
+    source: "Lapbench default",
+  },
+  wheelSpinTargetSlip: {
+    value: 0.08,
+    unit: "",
+    rationale: "8 % rear slip as a starting target; the right figure depends on tyre, bike and traction-control map.",
+    source: "Lapbench default",
+  },
+  wheelSpinMinDurationS: {
+    value: 0.3,
+    unit: "s",
+    rationale: "Short slip peaks are normal on a drive; only sustained spin is worth a look.",
+    source: "Lapbench default",
+  },
+  wheelSpinMinThrottlePct: {
+    value: 20,
+    unit: "%",
+    rationale: "Spin counts under open throttle only.",
+    source: "Lapbench default",
+  },
+  bottomingMarginM: {
+    value: 0.003,
+    unit: "m",
+    rationale: "3 mm short of full stroke counts as bottoming: pots rarely read the last millimetres exactly.",
+    source: "Lapbench default",
+  },
+  bottomingDebounceS: {
+    value: 0.2,
+    unit: "s",
+    rationale: "One hit that rings twice within 0.2 s is one event.",
+    source: "Lapbench default",
+  },
+  sensorFlatMinSpeedMs: {
+    value: 10,
+    unit: "m/s",
+    rationale: "Only judged while the bike moves faster than 36 km/h, when every working sensor changes.",
+    source: "Lapbench default",
+  },
+  sensorFlatMinDurationS: {
+    value: 5,
+    unit: "s",
+    rationale: "A working wheel-speed, rpm, suspension or lean sensor does not hold one exact value for 5 s at speed.",
+    source: "Lapbench default",
+  },
+  throttleFlatMinDurationS: {
+    value: 20,
+    unit: "s",
+    rationale: "Throttle is legitimately held wide open for a long straight; 20 s is longer than any straight.",
+    source: "Lapbench default",
+  },
+  gpsDropoutS: {
+    value: 1,
+    unit: "s",
+    rationale: "More than 1 s between fixes while moving is 10–25 missed fixes at usual logger rates.",
+    source: "Lapbench default",
+  },
+  gpsMovingSpeedMs: {
+    value: 5,
+    unit: "m/s",
+    rationale: "A dropout only matters while the bike moves.",
+    source: "Lapbench default",
+  },
+  gpsJumpMaxSpeedMs: {
+    value: 100,
+    unit: "m/s",
+    rationale: "360 km/h between two fixes is beyond any road-racing motorcycle: the fix jumped.",
+    source: "Lapbench default",
+  },
+  gpsJumpWheelFactor: {
+    value: 3,
+    unit: "",
+    rationale: "A fix-to-fix speed over 3× the wheel speed is a jump, not the bike.",
+    source: "Lapbench default",
+  },
+  gpsJumpMinExcessMs: {
+    value: 10,
+    unit: "m/s",
+    rationale: "At walking pace 3× wheel speed is within fix noise; the excess must also pass 10 m/s.",
+    source: "Lapbench default",
+  },
+  clockGapFactor: {
+    value: 3,
+    unit: "",
+    rationale: "A step over 3× the median sample interval means samples are missing.",
+    source: "Lapbench default",
+  },
+} as const satisfies Record<string, ThresholdDefault>;
+
+export type ThresholdKey = keyof typeof DEFAULT_THRESHOLDS;
+export type Thresholds = Record<ThresholdKey, number>;

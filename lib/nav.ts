@@ -1,0 +1,29 @@
+/**
+ * The main navigation: which screens exist and which roles see them (PRODUCT.md §7).
+ * Only screens that exist are listed; add an entry when a screen ships.
+ */
+import type { TeamRole } from "./auth/permissions";
+
+export interface NavItem {
+  href: string;
+  label: string;
+  roles: readonly TeamRole[];
+}
+
+const ALL: readonly TeamRole[] = ["owner", "engineer", "rider", "viewer"];
+
+export const NAV_ITEMS: readonly NavItem[] = [
+  { href: "/home", label: "Team home", roles: ALL },
+  { href: "/team", label: "Team", roles: ALL },
+];
+
+export function navFor(role: TeamRole): NavItem[] {
+  return NAV_ITEMS.filter((i) => i.roles.includes(role));
+}
+
+export const ROLE_LABEL: Record<TeamRole, string> = {
+  owner: "Owner",
+  engineer: "Engineer",
+  rider: "Rider",
+  viewer: "Viewer (read-only)",
+};

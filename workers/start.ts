@@ -1,0 +1,47 @@
+/**
+ * `npm start`: install what is missing, start MariaDB and the local fakes, migrate, seed the
+ * invented demo team, build and serve Lapbench on http://localhost:3000.
+ * `npm run dev` does the same with `next dev` and no build.
+ */
+import path from "node:path";
+import { config } from "../lib/config";
+import { startStack } from "./services/stack";
+import { DEMO_PASSWORD, DEMO_USERS } from "./demo-accounts";
+
+async function main() {
+  const dev = process.argv.includes("--dev");
+  const stack = await startStack({
+    dbName: config.db.name,
+    appPort: config.appPort,
+    mailPort: config.smtp.port,
+    uploadPort: config.uploadFake.port,
+    dataDir: config.dataDir,
+    build: !process.argv.includes("--no-build"),
+    dev,
+    seed: true,
+    worker: true,
+  });
+  const lines = [
+    "",
+    `Lapbench is up: ${stack.appUrl}`,
+    "",
+    "Demo sign-ins (invented team; password for all: " + DEMO_PASSWORD + ")",
+    ...DEMO_USERS.map((u) => `  ${u.role.padEnd(9)} ${u.email.padEnd(34)} ${u.name}`),
+    "",
+    `Captured e-mails (invitations, resets): ${stack.appUrl}/dev/mail`,
+    `Logs: ${path.join(config.dataDir, "logs")}   Stop: Ctrl+C (MariaDB keeps running; 'npm run stop' stops it)`,
+    "",
+  ];
+  console.log(lines.join("\n"));
+  const shutdown = async () => {
+    await stack.stop();
+    process.exit(0);
+  };
+  process.on("SIGINT", shutdown);
+  process.on("SIGTERM", shutdown);
+}
+
+main().catch((e) => {
+  console.error(`[lapbench] could not start: ${e instanceof Error ? e.message : String(e)}`);
+  process.exit(1);
+});

@@ -7,14 +7,23 @@ export interface FindCornersOptions {
   minProminenceMs?: number;
   /** Two minima closer than this along the lap are one corner, the slower kept (m). Default 40. */
   minSeparationM?: number;
+  /**
+   * The apex is the middle of the stretch around the minimum that stays within this of the
+   * minimum speed (m/s): a constant-radius arc at the grip limit is a plateau of speed, and
+   * sensor noise puts the single lowest sample anywhere on it. Default 0.5 m/s.
+   */
+  apexBandMs?: number;
 }
 
 export interface FoundCorner {
   /** "Corner 1", "Corner 2" … in lap order; the team renames them. */
   name: string;
   index: number;
-  /** Apex: distance of the speed minimum from the lap start (m). */
+  /** Apex: middle of the slowest stretch of the corner, from the lap start (m). */
   distanceM: number;
+  /** Where the slowest stretch (within apexBandMs of the minimum) begins and ends (m). */
+  slowFromM: number;
+  slowToM: number;
   minSpeedMs: number;
   prominenceMs: number;
 }
@@ -27,6 +36,7 @@ export interface FoundCorner {
 export function findCorners(speedMs: ArrayLike<number>, distanceM: ArrayLike<number>, opts: FindCornersOptions = {}): FoundCorner[] {
   const minProm = opts.minProminenceMs ?? 5;
   const minSep = opts.minSeparationM ?? 40;
+  const band = opts.apexBandMs ?? 0.5;
   // Compact the finite samples so NaN gaps (slow GPS speed) do not make false minima.
   const idx: number[] = [];
   for (let i = 0; i < speedMs.length; i++) if (Number.isFinite(speedMs[i]) && Number.isFinite(distanceM[i])) idx.push(i);
@@ -55,8 +65,17 @@ export function findCorners(speedMs: ArrayLike<number>, distanceM: ArrayLike<num
     for (let j = e + 1; j < m && v[j] >= vmin; j++) if (v[j] > rightMax) rightMax = v[j];
     const prominence = Math.min(leftMax, rightMax) - vmin;
     if (prominence >= minProm) {
-      const at = idx[(k + e) >> 1];
-      found.push({ name: "", index: at, distanceM: distanceM[at], minSpeedMs: vmin, prominenceMs: prominence });
+      let lo = k;
+      while (lo > 0 && v[lo - 1] <= vmin + band) lo--;
+      let hi = e;
+      while (hi + 1 < m && v[hi + 1] <= vmin + band) hi++;
+      const fromM = distanceM[idx[lo]];
+      const toM = distanceM[idx[hi]];
+      const mid = 0.5 * (fromM + toM);
+      // The sample nearest the middle of the slow stretch is the apex.
+      let at = idx[lo];
+      for (let q = lo; q <= hi; q++) if (Math.abs(distanceM[idx[q]] - mid) < Math.abs(distanceM[at] - mid)) at = idx[q];
+      found.push({ name: "", index: at, distanceM: distanceM[at], slowFromM: fromM, slowToM: toM, minSpeedMs: vmin, prominenceMs: prominence });
     }
     k = e + 1;
   }
@@ -64,7 +83,8 @@ export function findCorners(speedMs: ArrayLike<number>, distanceM: ArrayLike<num
   const merged: FoundCorner[] = [];
   for (const c of found) {
     const last = merged[merged.length - 1];
-    if (last && c.distanceM - last.distanceM < minSep) {
+    // Same corner: apexes close together, or overlapping slow stretches (noise on a plateau).
+    if (last && (c.distanceM - last.distanceM < minSep || c.slowFromM <= last.slowToM)) {
       if (c.minSpeedMs < last.minSpeedMs) merged[merged.length - 1] = c;
     } else merged.push(c);
   }

@@ -84,6 +84,19 @@ export const ROLE_LABEL: Record<ChannelRole, string> = {
   other: "Other",
 };
 
+/**
+ * Roles stored as Float64: latitude and longitude. Float32 keeps ~7 significant digits, which at
+ * mid latitudes rounds a position to ~0.4 m — about 7 ms of gate timing at 200 km/h.
+ */
+export const FLOAT64_ROLES: ReadonlySet<ChannelRole> = new Set<ChannelRole>(["gps_lat", "gps_lon"]);
+
+export type SampleArray = Float32Array | Float64Array;
+
+/** A NaN-free zeroed array of the storage type of a role. */
+export function sampleArrayFor(role: ChannelRole, length: number): SampleArray {
+  return FLOAT64_ROLES.has(role) ? new Float64Array(length) : new Float32Array(length);
+}
+
 export function isChannelRole(s: string): s is ChannelRole {
   return (CHANNEL_ROLES as readonly string[]).includes(s);
 }
@@ -96,7 +109,10 @@ export function isChannelRole(s: string): s is ChannelRole {
  */
 export interface SessionSeries {
   timeS: Float64Array;
-  channels: Partial<Record<Exclude<ChannelRole, "time" | "other">, Float32Array>>;
+  channels: Partial<Record<Exclude<ChannelRole, "time" | "other" | "gps_lat" | "gps_lon">, Float32Array>> & {
+    gps_lat?: SampleArray;
+    gps_lon?: SampleArray;
+  };
   /** Channels with role "other", by name. */
   others?: Record<string, Float32Array>;
 }

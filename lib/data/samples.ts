@@ -1,5 +1,6 @@
 /**
- * Sample storage: each channel's values as little-endian Float32 (time: Float64) blobs in chunks
+ * Sample storage: each channel's values as little-endian Float32 (time, latitude, longitude:
+ * Float64) blobs in chunks
  * of CHUNK_SAMPLES rows — never one row per sample (a 30-minute, 40-channel, 100 Hz session is
  * 7.2 million values; blobs are ~100× faster to write than narrow rows, shared/notes/mariadb.md).
  * Writes go through the mariadb driver's batch() on the transaction's own connection (binary
@@ -51,7 +52,7 @@ export async function writeSessionSamples(
   const durationS = series.rows > 1 ? series.timeS[series.rows - 1] - series.timeS[0] : 0;
   const defs = [
     { name: "Time", role: "time", unit: "s", values: series.timeS as Float64Array | Float32Array, sampleCount: series.rows, min: series.timeS[0] ?? NaN, max: series.timeS[series.rows - 1] ?? NaN, valueType: "f64" },
-    ...series.channels.map((c) => ({ name: c.name, role: c.role, unit: c.unit, values: c.values, sampleCount: c.sampleCount, min: c.min, max: c.max, valueType: "f32" })),
+    ...series.channels.map((c) => ({ name: c.name, role: c.role, unit: c.unit, values: c.values, sampleCount: c.sampleCount, min: c.min, max: c.max, valueType: c.values instanceof Float64Array ? "f64" : "f32" })),
   ];
   const stored: StoredChannel[] = [];
   const conn = rawConnection(t);

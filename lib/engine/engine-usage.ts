@@ -1,4 +1,4 @@
-import type { SessionSeries } from "@/lib/channels/roles";
+import type { SeriesLike } from "@/lib/laps/types";
 
 export interface EngineUsage {
   /** Time with the engine running (rpm above `runningRpm`) (s). */
@@ -21,7 +21,7 @@ export interface EngineUsage {
  * (default 500 — Lapbench's setting, below any idle). Speed channels that hold NaN between
  * fixes (GPS) are held forward for the distance.
  */
-export function engineUsage(series: SessionSeries, rpmThreshold: number, ceilingRpm: number, runningRpm = 500): EngineUsage {
+export function engineUsage(series: SeriesLike, rpmThreshold: number, ceilingRpm: number, runningRpm = 500): EngineUsage {
   const t = series.timeS;
   const rpm = series.channels.engine_rpm;
   const speed = series.channels.speed_front ?? series.channels.speed_rear ?? series.channels.gps_speed;

@@ -71,9 +71,10 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
         );
       }
     } else if (gapS > 0) {
-      const implied = haversineM(lat[prev], lon[prev], lat[i], lon[i]) / gapS;
+      const stepM = haversineM(lat[prev], lon[prev], lat[i], lon[i]);
+      const implied = stepM / gapS;
       const overAbs = implied > th.gpsJumpMaxSpeedMs;
-      const overWheel = Number.isFinite(ref) && implied > th.gpsJumpWheelFactor * ref && implied - ref > th.gpsJumpMinExcessMs;
+      const overWheel = Number.isFinite(ref) && implied > th.gpsJumpWheelFactor * ref && stepM - ref * gapS > th.gpsJumpMinExcessM;
       if (overAbs || overWheel) {
         const limit = overAbs ? th.gpsJumpMaxSpeedMs : th.gpsJumpWheelFactor * ref;
         if (jumpStart < 0) {

@@ -8,7 +8,7 @@ import type { Finding } from "./types";
  * counts as "moved" (about one step of a typical logger's resolution, SI units). Brake pressure
  * is left out: it rightly reads zero for whole straights.
  */
-const WATCHED: ReadonlyArray<[ChannelRole & keyof DetectorContext["series"]["channels"], number]> = [
+const WATCHED: ReadonlyArray<[Exclude<ChannelRole, "time" | "other">, number]> = [
   ["speed_front", 0.01],
   ["speed_rear", 0.01],
   ["engine_rpm", 1],

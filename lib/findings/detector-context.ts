@@ -1,15 +1,15 @@
-import type { SessionSeries } from "@/lib/channels/roles";
+import type { SeriesLike } from "@/lib/laps/types";
 import { DEFAULT_THRESHOLDS, type ThresholdKey, type Thresholds } from "./thresholds";
 import type { FindingsContext, LapSpan } from "./types";
 
 export interface DetectorContext {
-  series: SessionSeries;
+  series: SeriesLike;
   ctx: FindingsContext;
   th: Thresholds;
   /** Median sample interval of the master clock (s). */
   dtS: number;
   /** Ground speed per sample (m/s): front wheel, else rear wheel, else GPS speed held between fixes; undefined if none. */
-  groundSpeedMs: Float32Array | undefined;
+  groundSpeedMs: ArrayLike<number> | undefined;
   lapOf: (timeS: number) => number | null;
 }
 
@@ -26,8 +26,8 @@ function medianStep(t: Float64Array): number {
 }
 
 /** Carry each finite sample forward over the NaNs that follow it (slow channels on a fast clock). */
-export function holdForward(x: Float32Array): Float32Array {
-  const out = new Float32Array(x.length);
+export function holdForward(x: ArrayLike<number>): Float64Array {
+  const out = new Float64Array(x.length);
   let last = NaN;
   for (let i = 0; i < x.length; i++) {
     if (Number.isFinite(x[i])) last = x[i];
@@ -45,7 +45,7 @@ function makeLapOf(laps: readonly LapSpan[] | undefined) {
 }
 
 /** Thresholds resolved once: team settings over DEFAULT_THRESHOLDS, then the shared series facts. */
-export function buildDetectorContext(series: SessionSeries, ctx: FindingsContext): DetectorContext {
+export function buildDetectorContext(series: SeriesLike, ctx: FindingsContext): DetectorContext {
   const th = {} as Thresholds;
   for (const key of Object.keys(DEFAULT_THRESHOLDS) as ThresholdKey[]) {
     th[key] = ctx.thresholds?.[key] ?? DEFAULT_THRESHOLDS[key].value;

@@ -1,4 +1,4 @@
-import type { SessionSeries } from "@/lib/channels/roles";
+import type { SeriesLike } from "@/lib/laps/types";
 import { detectBottoming } from "./detect-bottoming";
 import { detectBrakeOnStraight } from "./detect-brake-on-straight";
 import { detectClockGaps } from "./detect-clock-gaps";
@@ -26,7 +26,7 @@ const DETECTORS = [
  * in time order. A detector whose channels or settings are missing finds nothing. Brake,
  * suspension and engine findings carry CAUTION_TEXT.
  */
-export function runFindings(series: SessionSeries, ctx: FindingsContext = {}): Finding[] {
+export function runFindings(series: SeriesLike, ctx: FindingsContext = {}): Finding[] {
   const dc = buildDetectorContext(series, ctx);
   const all = DETECTORS.flatMap((detect) => detect(dc));
   return all.sort((a, b) => a.startTimeS - b.startTimeS || a.kind.localeCompare(b.kind));

@@ -80,21 +80,21 @@ export const DEFAULT_THRESHOLDS = {
     source: "Lapbench default",
   },
   sensorFlatMinSpeedMs: {
-    value: 10,
+    value: 20,
     unit: "m/s",
-    rationale: "Only judged while the bike moves faster than 36 km/h, when every working sensor changes.",
+    rationale: "Judged above 72 km/h only, faster than any pit lane, so riding the pit limiter at a steady throttle does not count.",
     source: "Lapbench default",
   },
   sensorFlatMinDurationS: {
-    value: 5,
+    value: 20,
     unit: "s",
-    rationale: "A working wheel-speed, rpm, suspension or lean sensor does not hold one exact value for 5 s at speed.",
+    rationale: "Longer than a straight, where lean can read an exact 0; a failed sensor usually stays stuck far longer.",
     source: "Lapbench default",
   },
   throttleFlatMinDurationS: {
-    value: 20,
+    value: 30,
     unit: "s",
-    rationale: "Throttle is legitimately held wide open for a long straight; 20 s is longer than any straight.",
+    rationale: "Throttle is legitimately held wide open through sweepers and a long straight; 30 s is longer than that.",
     source: "Lapbench default",
   },
   gpsDropoutS: {
@@ -112,7 +112,7 @@ export const DEFAULT_THRESHOLDS = {
   gpsJumpMaxSpeedMs: {
     value: 100,
     unit: "m/s",
-    rationale: "360 km/h between two fixes is beyond any road-racing motorcycle: the fix jumped.",
+    rationale: "360 km/h is above the top speed of the bikes Lapbench is built for; faster than that between two fixes, the fix jumped.",
     source: "Lapbench default",
   },
   gpsJumpWheelFactor: {
@@ -121,10 +121,10 @@ export const DEFAULT_THRESHOLDS = {
     rationale: "A fix-to-fix speed over 3× the wheel speed is a jump, not the bike.",
     source: "Lapbench default",
   },
-  gpsJumpMinExcessMs: {
-    value: 10,
-    unit: "m/s",
-    rationale: "At walking pace 3× wheel speed is within fix noise; the excess must also pass 10 m/s.",
+  gpsJumpMinExcessM: {
+    value: 5,
+    unit: "m",
+    rationale: "At a standstill any fix scatter beats 3× wheel speed; the step must also exceed the wheel's travel by 5 m.",
     source: "Lapbench default",
   },
   clockGapFactor: {

@@ -38,13 +38,11 @@ export interface Finding {
   caution?: string;
 }
 
-/** A lap as lib/laps gives it. */
+/** The part of a lap the findings read; a lib/laps `Lap` fits. */
 export interface LapSpan {
   number: number;
   startTimeS: number;
   endTimeS: number;
-  isOutLap: boolean;
-  isInLap: boolean;
 }
 
 export interface LatLon {

@@ -96,7 +96,9 @@ export async function waitForHttp(url: string, timeoutMs: number, child?: ChildP
   throw new Error(`${url} did not answer within ${timeoutMs} ms`);
 }
 
-const tsxCli = () => path.join(config.root, "node_modules", "tsx", "dist", "cli.mjs");
+// `node --import tsx script.ts` keeps one process per service (the tsx CLI would add a wrapper
+// process), so stopping a service by its PID stops it.
+const tsxArgs = (script: string) => ["--import", "tsx", script];
 const nextCli = () => path.join(config.root, "node_modules", "next", "dist", "bin", "next");
 
 function spawnLogged(name: string, args: string[], env: NodeJS.ProcessEnv, logDir: string, quiet: boolean): ChildProcess {
@@ -162,14 +164,14 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     await s.close();
 
     say(`starting the mail fake on 127.0.0.1:${o.mailPort} and the upload fake on 127.0.0.1:${o.uploadPort}`);
-    const mail = spawnLogged("mail-fake", [tsxCli(), "workers/services/mail-fake.ts"], env, logDir, !!o.quiet);
-    const upload = spawnLogged("upload-fake", [tsxCli(), "workers/services/upload-fake.ts"], env, logDir, !!o.quiet);
+    const mail = spawnLogged("mail-fake", tsxArgs("workers/services/mail-fake.ts"), env, logDir, !!o.quiet);
+    const upload = spawnLogged("upload-fake", tsxArgs("workers/services/upload-fake.ts"), env, logDir, !!o.quiet);
     children.push(mail, upload);
     await Promise.all([waitForPort(o.mailPort, 30_000, mail), waitForPort(o.uploadPort, 30_000, upload)]);
 
     if (o.seed) {
       say("seeding the demo team");
-      const r = spawnSync(process.execPath, [tsxCli(), "workers/seed.ts"], { cwd: config.root, env, stdio: o.quiet ? "pipe" : "inherit" });
+      const r = spawnSync(process.execPath, tsxArgs("workers/seed.ts"), { cwd: config.root, env, stdio: o.quiet ? "pipe" : "inherit" });
       if (r.status !== 0) throw new Error(`seeding failed: ${r.stderr?.toString() ?? ""}`);
     }
 
@@ -180,7 +182,7 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     }
 
     if (o.worker && fs.existsSync(path.join(config.root, "workers", "ingest-worker.ts"))) {
-      children.push(spawnLogged("worker", [tsxCli(), "workers/ingest-worker.ts"], env, logDir, !!o.quiet));
+      children.push(spawnLogged("worker", tsxArgs("workers/ingest-worker.ts"), env, logDir, !!o.quiet));
     }
 
     say(`starting the web app on http://localhost:${o.appPort}`);

@@ -1,0 +1,363 @@
+import { sampleArrayFor } from "@/lib/channels/roles";
+import { Readable } from "node:stream";
+import Papa from "papaparse";
+import { readCsvHeader, type CsvHeader } from "./csv-header";
+import { decodeTextStream, type DecodeProgress } from "./decode-text-stream";
+import { ISO_8601_DATE_TIME } from "./detect-time-format";
+import { IngestError, quoteForMessage } from "./ingest-error";
+import { LIMITS, type IngestLimits } from "./limits";
+import type { Mapping, MappedColumn, TimeFormat } from "./mapping";
+import { describeBadCell, FLOAT32_MAX, parseNumberCell } from "./parse-number-cell";
+import type { IngestProgress, ParsedChannel, ParsedSeries } from "./parsed-series";
+import { normaliseName } from "./suggest-mapping";
+import { unitConversion } from "./units";
+
+/** Collect decoded text until the preamble (metadata, header, sample rows) is surely inside. */
+const PREAMBLE_LINES = 240;
+const PREAMBLE_MAX_CHARS = 4 * 1024 * 1024;
+const INITIAL_CAPACITY = 4096;
+
+export interface ParseCsvOptions {
+  /** For messages; default "upload.csv". */
+  fileName?: string;
+}
+
+interface ChannelPlan {
+  column: MappedColumn;
+  header: string;
+  role: ParsedChannel["role"];
+  unit: string;
+  /** si = raw × factor + offset (calibration and unit conversion folded together). */
+  factor: number;
+  offset: number;
+}
+
+/**
+ * Parse a CSV channel export as a stream with papaparse (`chunk` mode), filling growable typed
+ * arrays (Float64 time, Float32 per channel, NaN for empty cells) in SI units, validating every
+ * cell as it goes. Throws IngestError naming the line and column on the first problem; returns
+ * nothing partial. Memory: the arrays double as they grow and are trimmed at the end, so the peak
+ * is about twice the output plus one papaparse chunk.
+ */
+export async function parseCsvStream(
+  readable: NodeJS.ReadableStream | AsyncIterable<Buffer | string>,
+  mapping: Mapping,
+  limits: IngestLimits = LIMITS,
+  onProgress?: (p: IngestProgress) => void,
+  options: ParseCsvOptions = {},
+): Promise<ParsedSeries> {
+  const fileName = options.fileName ?? "upload.csv";
+  const progress: DecodeProgress = { bytesRead: 0, lines: 0 };
+  const decoded = decodeTextStream(readable as AsyncIterable<Buffer>, {
+    limits,
+    fileName,
+    progress,
+    onFormat: (s) => {
+      if (s.format !== "csv") {
+        throw new IngestError("UNSUPPORTED_TEXT", `"${fileName}" is ${s.format === "gpx" ? "a GPX" : "an NMEA 0183"} file, not CSV; import it as ${s.format.toUpperCase()}.`);
+      }
+    },
+  });
+
+  // 1. Preamble.
+  let preamble = "";
+  let lfCount = 0;
+  let ended = false;
+  for (;;) {
+    const next = await decoded.next();
+    if (next.done) {
+      ended = true;
+      break;
+    }
+    preamble += next.value;
+    lfCount += countLf(next.value);
+    if (lfCount >= PREAMBLE_LINES || preamble.length >= PREAMBLE_MAX_CHARS) break;
+  }
+  if (ended && preamble.trim() === "") {
+    await decoded.return(undefined);
+    throw new IngestError("EMPTY_FILE", `"${fileName}" has no text${progress.bytesRead > 0 ? " (only blank lines or a byte-order mark)" : " (0 bytes)"}.`);
+  }
+  let header: CsvHeader;
+  try {
+    header = readCsvHeader(preamble, ended, limits);
+  } catch (e) {
+    await decoded.return(undefined);
+    throw e;
+  }
+  let plan: ReturnType<typeof planColumns>;
+  try {
+    plan = planColumns(header, mapping);
+  } catch (e) {
+    await decoded.return(undefined);
+    throw e;
+  }
+  const { timeColumn, channels } = plan;
+  const rest = preamble.slice(header.dataStartOffset);
+  preamble = "";
+
+  async function* textForPapa(): AsyncGenerator<string> {
+    if (rest) yield rest;
+    for (;;) {
+      const next = await decoded.next();
+      if (next.done) return;
+      yield next.value;
+    }
+  }
+
+  // 2. Rows.
+  const nch = channels.length;
+  const colIdx = channels.map((c) => c.column.index);
+  const factor = channels.map((c) => c.factor);
+  const offset = channels.map((c) => c.offset);
+  const timeIdx = timeColumn.index;
+  const timeHeader = header.columns.find((c) => c.index === timeIdx)?.header ?? timeColumn.name;
+  const timeFormat: TimeFormat = mapping.timeFormat;
+  /** readTime returns seconds, or milliseconds for "milliseconds" and "iso8601". */
+  const timeDivisor = timeFormat === "seconds" ? 1 : 1000;
+  const fieldCount = header.fieldCount;
+  const decimalComma = header.decimalComma;
+  let capacity = INITIAL_CAPACITY;
+  let timeS = new Float64Array(capacity);
+  let values = channels.map((c) => sampleArrayFor(c.role, capacity));
+  const counts = new Array<number>(nch).fill(0);
+  const mins = new Array<number>(nch).fill(Infinity);
+  const maxs = new Array<number>(nch).fill(-Infinity);
+  let rows = 0;
+  let line = header.dataStartLine;
+  let t0 = NaN;
+  let prevRaw = NaN;
+  let prevCell = "";
+  let prevLine = 0;
+  let firstTimeCell = "";
+  let pendingShort: { line: number; found: number } | undefined;
+
+  function grow(): void {
+    capacity *= 2;
+    const t = new Float64Array(capacity);
+    t.set(timeS);
+    timeS = t;
+    values = values.map((v, k) => {
+      const w = sampleArrayFor(channels[k].role, capacity);
+      w.set(v);
+      return w;
+    });
+  }
+
+  function fieldCountError(at: { line: number; found: number }, last: boolean): IngestError {
+    if (last && at.found < fieldCount) {
+      return new IngestError("TRUNCATED_LINE", `Line ${at.line} (the last line) has ${at.found} of ${fieldCount} fields: the file looks cut off. Upload the complete file.`, { line: at.line });
+    }
+    return new IngestError("FIELD_COUNT", `Line ${at.line} has ${at.found} fields; the header has ${fieldCount}. Every line needs one field per column (empty for no sample).`, { line: at.line });
+  }
+
+  function readTime(cell: string, lineNo: number): number {
+    if (cell.trim() === "") {
+      throw new IngestError("BAD_TIME", `Line ${lineNo}, column ${quoteForMessage(timeHeader)}: the time is empty; every line needs a time.`, { line: lineNo, column: timeHeader });
+    }
+    if (timeFormat === "iso8601") {
+      const ms = parseIsoMs(cell.trim());
+      if (ms === undefined) {
+        throw new IngestError("BAD_TIME", `Line ${lineNo}, column ${quoteForMessage(timeHeader)}: expected an ISO 8601 date and time (e.g. 2024-05-01T10:00:00.125Z), found ${quoteForMessage(cell)}.`, {
+          line: lineNo,
+          column: timeHeader,
+        });
+      }
+      return ms;
+    }
+    const v = parseNumberCell(cell, decimalComma);
+    if (v === undefined || v !== v) {
+      const err = describeBadCell(cell, lineNo, timeHeader, decimalComma);
+      throw new IngestError(err.code === "NOT_A_NUMBER" ? "BAD_TIME" : err.code, err.message.replace("expected a number", `expected a time in ${timeFormat}`), { line: lineNo, column: timeHeader });
+    }
+    return v;
+  }
+
+  function processRows(data: string[][]): void {
+    for (let r = 0; r < data.length; r++, line++) {
+      const row = data[r];
+      if (row.length === 1 && row[0].trim() === "") continue;
+      if (pendingShort) throw fieldCountError(pendingShort, false);
+      if (row.length !== fieldCount) {
+        if (row.length > fieldCount) throw fieldCountError({ line, found: row.length }, false);
+        pendingShort = { line, found: row.length };
+        continue;
+      }
+      if (rows >= limits.maxRows) {
+        throw new IngestError("TOO_MANY_ROWS", `Line ${line}: more than ${limits.maxRows.toLocaleString("en-GB")} rows of samples; split the log into shorter files.`, { line });
+      }
+      const tCell = row[timeIdx];
+      const t = readTime(tCell, line);
+      if (rows === 0) {
+        t0 = t;
+        firstTimeCell = tCell.trim();
+      } else if (!(t > prevRaw)) {
+        if (t === prevRaw) {
+          throw new IngestError("DUPLICATE_TIME", `Line ${line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(tCell.trim())} repeats the one on line ${prevLine}; time stamps must be unique.`, {
+            line,
+            column: timeHeader,
+          });
+        }
+        throw new IngestError(
+          "TIME_BACKWARDS",
+          `Line ${line}, column ${quoteForMessage(timeHeader)}: time goes backwards, ${quoteForMessage(tCell.trim())} after ${quoteForMessage(prevCell)} on line ${prevLine}; times must increase.`,
+          { line, column: timeHeader },
+        );
+      }
+      prevRaw = t;
+      prevCell = tCell.trim();
+      prevLine = line;
+      if (rows === capacity) grow();
+      // Subtract in the file's own unit first: epoch milliseconds keep sub-ms steps exact enough.
+      timeS[rows] = (t - t0) / timeDivisor;
+      for (let k = 0; k < nch; k++) {
+        const cell = row[colIdx[k]];
+        const raw = parseNumberCell(cell, decimalComma);
+        if (raw === undefined) throw describeBadCell(cell, line, channels[k].header, decimalComma);
+        if (raw !== raw) {
+          values[k][rows] = NaN;
+          continue;
+        }
+        const si = raw * factor[k] + offset[k];
+        if (si > FLOAT32_MAX || si < -FLOAT32_MAX) {
+          throw new IngestError("NUMBER_OUT_OF_RANGE", `Line ${line}, column ${quoteForMessage(channels[k].header)}: ${quoteForMessage(cell)} is out of range for a stored sample.`, {
+            line,
+            column: channels[k].header,
+          });
+        }
+        values[k][rows] = si;
+        counts[k]++;
+        if (si < mins[k]) mins[k] = si;
+        if (si > maxs[k]) maxs[k] = si;
+      }
+      rows++;
+    }
+  }
+
+  const source = Readable.from(textForPapa());
+  await new Promise<void>((resolve, reject) => {
+    let failure: unknown;
+    let settled = false;
+    const finish = () => {
+      if (settled) return;
+      settled = true;
+      if (failure !== undefined) reject(failure);
+      else resolve();
+    };
+    const fail = (e: unknown) => {
+      if (failure === undefined) failure = e;
+      source.destroy();
+      finish();
+    };
+    Papa.parse<string[], NodeJS.ReadableStream>(source, {
+      delimiter: header.delimiter,
+      newline: "\n",
+      quoteChar: '"',
+      header: false,
+      skipEmptyLines: false,
+      chunk: (results, parser) => {
+        if (failure !== undefined) return;
+        try {
+          const quoteError = results.errors.find((e) => e.type === "Quotes");
+          if (quoteError) {
+            const at = line + (quoteError.row ?? 0);
+            throw new IngestError("UNCLOSED_QUOTE", `Line ${at}: a quoted field is not closed properly (${quoteError.message}).`, { line: at });
+          }
+          processRows(results.data);
+          onProgress?.({ bytesRead: progress.bytesRead, rows });
+        } catch (e) {
+          // Record the failure first: abort() calls `complete` synchronously.
+          failure = e;
+          parser.abort();
+          fail(e);
+        }
+      },
+      complete: () => finish(),
+      error: (e: Error) => fail(e),
+    });
+  });
+
+  if (pendingShort) throw fieldCountError(pendingShort, true);
+  if (rows === 0) {
+    throw new IngestError("HEADER_ONLY", `The file has a header (line ${header.headerLine}) but no data lines.`, { line: header.headerLine });
+  }
+
+  // 3. Trim to size.
+  const out: ParsedChannel[] = channels.map((c, k) => ({
+    name: c.column.name,
+    role: c.role,
+    unit: c.unit,
+    values: values[k].slice(0, rows),
+    sampleCount: counts[k],
+    min: counts[k] > 0 ? mins[k] : NaN,
+    max: counts[k] > 0 ? maxs[k] : NaN,
+  }));
+  const metadata: Record<string, string> = { ...header.metadata, source_format: "csv", time_format: timeFormat, first_time_value: firstTimeCell };
+  if (timeFormat === "iso8601") metadata.start_time_iso = new Date(t0).toISOString();
+  onProgress?.({ bytesRead: progress.bytesRead, rows });
+  return { timeS: timeS.slice(0, rows), channels: out, metadata, rows };
+}
+
+/** Check the mapping against this file's header and work out each column's conversion to SI. */
+function planColumns(header: CsvHeader, mapping: Mapping): { timeColumn: MappedColumn; channels: ChannelPlan[] } {
+  const byIndex = new Map(header.columns.map((c) => [c.index, c]));
+  for (const m of mapping.columns) {
+    const col = byIndex.get(m.index);
+    if (!col || normaliseName(col.name) !== normaliseName(m.name)) {
+      const found = col ? `is ${quoteForMessage(col.name)}` : "does not exist";
+      throw new IngestError(
+        "MAPPING_MISMATCH",
+        `The column mapping does not fit this file: column ${m.index + 1} ${found} here but ${quoteForMessage(m.name)} in the mapping. Map the columns of this file again.`,
+        { column: m.name },
+      );
+    }
+  }
+  const times = mapping.columns.filter((c) => c.role === "time");
+  if (times.length === 0) {
+    throw new IngestError("NO_TIME_COLUMN", `No column is mapped to time; Lapbench needs a time column (seconds, milliseconds or ISO 8601). Columns: ${header.columns.map((c) => quoteForMessage(c.header)).join(", ")}.`);
+  }
+  if (times.length > 1) {
+    throw new IngestError("MAPPING_MISMATCH", `More than one column is mapped to time: ${times.map((c) => quoteForMessage(c.name)).join(", ")}; choose one.`);
+  }
+  const seenRoles = new Map<string, string>();
+  const channels: ChannelPlan[] = [];
+  for (const m of mapping.columns) {
+    if (m.role === "time" || m.role === "ignore") continue;
+    if (m.role !== "other") {
+      const before = seenRoles.get(m.role);
+      if (before !== undefined) {
+        throw new IngestError("MAPPING_MISMATCH", `Columns ${quoteForMessage(before)} and ${quoteForMessage(m.name)} are both mapped to ${m.role.replace(/_/g, " ")}; a role can be used once.`);
+      }
+      seenRoles.set(m.role, m.name);
+    }
+    const col = byIndex.get(m.index)!;
+    const conv = unitConversion(m.role, m.unit, col.header);
+    const scale = Number.isFinite(m.scale) ? m.scale : 1;
+    const off = Number.isFinite(m.offset) ? m.offset : 0;
+    channels.push({ column: m, header: col.header, role: m.role, unit: conv.siUnit, factor: scale * conv.factor, offset: off * conv.factor + conv.offset });
+  }
+  if (channels.length === 0) {
+    throw new IngestError("ONLY_TIME_COLUMN", `The file has only a time column (${quoteForMessage(times[0].name)}) and no data channels to import.`);
+  }
+  return { timeColumn: times[0], channels };
+}
+
+/** Milliseconds since the epoch of an ISO 8601 date-time (no zone = UTC), keeping sub-ms digits. */
+function parseIsoMs(text: string): number | undefined {
+  if (!ISO_8601_DATE_TIME.test(text)) return undefined;
+  let s = text.replace(" ", "T");
+  let fraction = 0;
+  const frac = /\.(\d+)/.exec(s);
+  if (frac) {
+    fraction = Number("0." + frac[1]) * 1000;
+    s = s.replace(frac[0], "");
+  }
+  if (!/(Z|[+-]\d{2}:?\d{2})$/.test(s)) s += "Z";
+  const ms = Date.parse(s);
+  return Number.isNaN(ms) ? undefined : ms + fraction;
+}
+
+function countLf(s: string): number {
+  let n = 0;
+  for (let i = s.indexOf("\n"); i >= 0; i = s.indexOf("\n", i + 1)) n++;
+  return n;
+}

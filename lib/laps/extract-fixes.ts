@@ -1,0 +1,46 @@
+import type { GpsFixes } from "@/lib/geo/types";
+import type { SeriesLike } from "./types";
+
+/** GPS fixes pulled out of a series, with the master-clock sample each came from. */
+export interface SeriesFixes extends GpsFixes {
+  latDeg: Float64Array;
+  lonDeg: Float64Array;
+  /** Index into series.timeS of each fix. */
+  sampleIndex: Int32Array;
+  /** GPS speed at each fix in m/s, NaN where the log has none. */
+  speedMs: Float64Array;
+}
+
+/**
+ * The samples where both gps_lat and gps_lon hold a value (the fixes of a GPS logged slower than
+ * the master clock), as compact Float64 arrays. Two passes: count, then fill, no growing arrays.
+ */
+export function extractFixes(series: SeriesLike): SeriesFixes {
+  const lat = series.channels.gps_lat;
+  const lon = series.channels.gps_lon;
+  const spd = series.channels.gps_speed;
+  const t = series.timeS;
+  let n = 0;
+  if (lat && lon) {
+    for (let i = 0; i < t.length; i++) if (Number.isFinite(lat[i]) && Number.isFinite(lon[i])) n++;
+  }
+  const out: SeriesFixes = {
+    timeS: new Float64Array(n),
+    latDeg: new Float64Array(n),
+    lonDeg: new Float64Array(n),
+    sampleIndex: new Int32Array(n),
+    speedMs: new Float64Array(n),
+  };
+  if (!lat || !lon) return out;
+  let k = 0;
+  for (let i = 0; i < t.length; i++) {
+    if (!Number.isFinite(lat[i]) || !Number.isFinite(lon[i])) continue;
+    out.timeS[k] = t[i];
+    out.latDeg[k] = lat[i];
+    out.lonDeg[k] = lon[i];
+    out.sampleIndex[k] = i;
+    out.speedMs[k] = spd ? spd[i] : NaN;
+    k++;
+  }
+  return out;
+}

@@ -1,0 +1,74 @@
+import type { SeriesLike } from "@/lib/laps/types";
+
+export interface SlipZeroOptions {
+  /** Only running faster than this counts (m/s). Default 60 km/h. */
+  minSpeedMs?: number;
+  /** Upright running only: |lean| below this (deg). Default 5°. */
+  maxLeanDeg?: number;
+  /** Throttle must stay within ± this (percentage points) over the window. Default 3. */
+  maxThrottleChangePct?: number;
+  /** Low acceleration only: |dv/dt| of the front wheel below this (m/s²). Default 1. */
+  maxAccelMs2?: number;
+  /** Half-width of the window used to judge "steady" (s). Default 0.25. */
+  halfWindowS?: number;
+  /** Fewer qualifying samples than this → no calibration (ratio 1). Default 20. */
+  minSamples?: number;
+}
+
+export interface SlipZeroResult {
+  /** Median of v_rear / v_front on steady straight running; 1 when not applied. */
+  ratio: number;
+  sampleCount: number;
+  applied: boolean;
+}
+
+/**
+ * Automatic zero of the slip channel. The rolling circumferences entered for the two wheels
+ * never match the real ones exactly (wear, pressure, temperature), so at steady speed on a
+ * straight the rear/front speed ratio is not exactly 1. We take the median of that ratio while
+ * the throttle is steady, the bike upright and the acceleration low, and divide it out later.
+ * Channels that are missing (throttle, lean) simply drop their condition.
+ */
+export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}): SlipZeroResult {
+  const minSpeedMs = opts.minSpeedMs ?? 60 / 3.6;
+  const maxLeanDeg = opts.maxLeanDeg ?? 5;
+  const maxThrottleChangePct = opts.maxThrottleChangePct ?? 3;
+  const maxAccelMs2 = opts.maxAccelMs2 ?? 1;
+  const halfWindowS = opts.halfWindowS ?? 0.25;
+  const minSamples = opts.minSamples ?? 20;
+
+  const t = series.timeS;
+  const front = series.channels.speed_front;
+  const rear = series.channels.speed_rear;
+  const throttle = series.channels.throttle;
+  const lean = series.channels.lean_angle;
+  if (!front || !rear) return { ratio: 1, sampleCount: 0, applied: false };
+
+  const n = t.length;
+  const ratios = new Float64Array(n);
+  let count = 0;
+  let lo = 0;
+  let hi = 0;
+  for (let i = 0; i < n; i++) {
+    while (t[i] - t[lo] > halfWindowS) lo++;
+    if (hi < i) hi = i;
+    while (hi + 1 < n && t[hi + 1] - t[i] <= halfWindowS) hi++;
+    const vf = front[i];
+    const vr = rear[i];
+    if (!(vf >= minSpeedMs) || !Number.isFinite(vr)) continue;
+    if (lean && !(Math.abs(lean[i]) < maxLeanDeg)) continue;
+    if (hi === lo) continue;
+    const accel = (front[hi] - front[lo]) / (t[hi] - t[lo]);
+    if (!(Math.abs(accel) <= maxAccelMs2)) continue;
+    if (throttle) {
+      const th = throttle[i];
+      if (!(Math.abs(throttle[lo] - th) <= maxThrottleChangePct && Math.abs(throttle[hi] - th) <= maxThrottleChangePct)) continue;
+    }
+    ratios[count++] = vr / vf;
+  }
+  if (count < minSamples) return { ratio: 1, sampleCount: count, applied: false };
+  const sorted = ratios.subarray(0, count).sort();
+  const mid = count >> 1;
+  const ratio = count % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
+  return { ratio, sampleCount: count, applied: true };
+}

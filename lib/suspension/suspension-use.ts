@@ -1,0 +1,163 @@
+import { bottomingEvents, type BottomingEvent, type BottomingOptions } from "./bottoming-events";
+import { savitzkyGolayDerivative } from "./savitzky-golay";
+
+/**
+ * A starting value for the low/high-speed damping boundary offered in settings. There is no
+ * published universal boundary: this is Lapbench's default setting, which a team changes to
+ * match its damper, not a fact about suspension.
+ */
+export const DEFAULT_LOW_HIGH_BOUNDARY_MS = 0.1;
+
+export interface SuspensionUseOptions {
+  /** Full stroke of the fork or shock (m). */
+  strokeM: number;
+  /** Savitzky–Golay window for velocity (samples, odd). Default 7. */
+  velocityWindow?: number;
+  /** Savitzky–Golay polynomial order. Default 2. */
+  velocityOrder?: number;
+  /** Low/high-speed split (m/s) — a setting, see DEFAULT_LOW_HIGH_BOUNDARY_MS. */
+  lowHighBoundaryMs: number;
+  /** Number of position bins across 0–100 % of stroke. Default 20. */
+  bins?: number;
+  /** Velocity bin width (m/s). Default 0.025. */
+  velocityBinWidthMs?: number;
+  /** Velocity histogram covers ± this; faster samples go in the outer bins (m/s). Default 0.5. */
+  velocityRangeMs?: number;
+  /** Ground speed (m/s) for sag; without it sag is not reported. */
+  speedMs?: Float32Array;
+  /** Lean angle (deg) to keep rolling sag to upright running. */
+  leanDeg?: Float32Array;
+  bottoming?: BottomingOptions;
+}
+
+export interface Histogram {
+  /** Bin edges, length = bins + 1. */
+  edges: Float64Array;
+  /** Share of time per bin, % of the valid samples. */
+  timePct: Float64Array;
+}
+
+export interface SuspensionUse {
+  strokeM: number;
+  sampleCount: number;
+  /** Position histogram, edges in % of stroke. */
+  position: Histogram;
+  /** Velocity histogram, edges in m/s; compression (travel increasing) positive. */
+  velocity: Histogram;
+  /** Share of time in each damping quadrant (%; zero velocity counts as compression). */
+  split: { boundaryMs: number; compressionLowPct: number; compressionHighPct: number; reboundLowPct: number; reboundHighPct: number };
+  /** The velocity channel itself (m/s). */
+  velocityMs: Float32Array;
+  /**
+   * Sag, two ways: `steadySpeedM` is the median travel while running upright at a steady speed
+   * above 10 m/s (|dv/dt| < 0.5 m/s², |lean| < 5°) — rolling sag; `stoppedM` is the median
+   * travel while the bike stands still (< 0.5 m/s), which is static sag only if the rider sat
+   * on it. Each needs at least 1 s of qualifying samples, else null.
+   */
+  sag: { steadySpeedM: number | null; stoppedM: number | null };
+  maxTravelM: number;
+  maxTravelPct: number;
+  bottoming: { count: number; events: BottomingEvent[] };
+}
+
+function median(values: Float64Array, count: number): number {
+  const s = values.subarray(0, count).sort();
+  const mid = count >> 1;
+  return count % 2 ? s[mid] : 0.5 * (s[mid - 1] + s[mid]);
+}
+
+/** Suspension use of one fork or shock over a record (a lap or a session). */
+export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: SuspensionUseOptions): SuspensionUse {
+  const n = travelM.length;
+  const { strokeM, lowHighBoundaryMs } = opts;
+  const window = opts.velocityWindow ?? 7;
+  const order = opts.velocityOrder ?? 2;
+  const bins = opts.bins ?? 20;
+  const vWidth = opts.velocityBinWidthMs ?? 0.025;
+  const vRange = opts.velocityRangeMs ?? 0.5;
+  const dtS = n > 1 ? (timeS[n - 1] - timeS[0]) / (n - 1) : 1;
+
+  const velocityMs = savitzkyGolayDerivative(travelM, dtS, window, order, 1);
+
+  const posEdges = new Float64Array(bins + 1);
+  for (let b = 0; b <= bins; b++) posEdges[b] = (100 * b) / bins;
+  const posCounts = new Float64Array(bins);
+  const vBins = 2 * Math.ceil(vRange / vWidth);
+  const vEdges = new Float64Array(vBins + 1);
+  for (let b = 0; b <= vBins; b++) vEdges[b] = -vRange + b * vWidth;
+  const vCounts = new Float64Array(vBins);
+  let cLow = 0, cHigh = 0, rLow = 0, rHigh = 0, vCount = 0;
+  let pCount = 0;
+  let maxTravelM = -Infinity;
+
+  for (let i = 0; i < n; i++) {
+    const x = travelM[i];
+    if (Number.isFinite(x)) {
+      pCount++;
+      if (x > maxTravelM) maxTravelM = x;
+      const pct = (100 * x) / strokeM;
+      const b = Math.min(bins - 1, Math.max(0, Math.floor((pct / 100) * bins)));
+      posCounts[b]++;
+    }
+    const v = velocityMs[i];
+    if (Number.isFinite(v)) {
+      vCount++;
+      const b = Math.min(vBins - 1, Math.max(0, Math.floor((v + vRange) / vWidth)));
+      vCounts[b]++;
+      const fast = Math.abs(v) >= lowHighBoundaryMs;
+      if (v >= 0) fast ? cHigh++ : cLow++;
+      else fast ? rHigh++ : rLow++;
+    }
+  }
+  for (let b = 0; b < bins; b++) posCounts[b] = pCount ? (100 * posCounts[b]) / pCount : 0;
+  for (let b = 0; b < vBins; b++) vCounts[b] = vCount ? (100 * vCounts[b]) / vCount : 0;
+  const pctOf = (k: number) => (vCount ? (100 * k) / vCount : 0);
+
+  // Sag.
+  let steadySpeedM: number | null = null;
+  let stoppedM: number | null = null;
+  const speed = opts.speedMs;
+  if (speed) {
+    const steady = new Float64Array(n);
+    const stopped = new Float64Array(n);
+    let ns = 0, nz = 0;
+    const half = Math.max(1, Math.round(0.25 / dtS));
+    const lean = opts.leanDeg;
+    for (let i = 0; i < n; i++) {
+      const x = travelM[i];
+      const v = speed[i];
+      if (!Number.isFinite(x) || !Number.isFinite(v)) continue;
+      if (v < 0.5) {
+        stopped[nz++] = x;
+        continue;
+      }
+      if (v <= 10 || i < half || i + half >= n) continue;
+      if (lean && !(Math.abs(lean[i]) < 5)) continue;
+      const accel = (speed[i + half] - speed[i - half]) / (timeS[i + half] - timeS[i - half]);
+      if (Math.abs(accel) < 0.5) steady[ns++] = x;
+    }
+    const minCount = Math.ceil(1 / dtS);
+    if (ns >= minCount) steadySpeedM = median(steady, ns);
+    if (nz >= minCount) stoppedM = median(stopped, nz);
+  }
+
+  const events = bottomingEvents(travelM, timeS, strokeM, opts.bottoming);
+  return {
+    strokeM,
+    sampleCount: pCount,
+    position: { edges: posEdges, timePct: posCounts },
+    velocity: { edges: vEdges, timePct: vCounts },
+    split: {
+      boundaryMs: lowHighBoundaryMs,
+      compressionLowPct: pctOf(cLow),
+      compressionHighPct: pctOf(cHigh),
+      reboundLowPct: pctOf(rLow),
+      reboundHighPct: pctOf(rHigh),
+    },
+    velocityMs,
+    sag: { steadySpeedM, stoppedM },
+    maxTravelM: pCount ? maxTravelM : NaN,
+    maxTravelPct: pCount ? (100 * maxTravelM) / strokeM : NaN,
+    bottoming: { count: events.length, events },
+  };
+}

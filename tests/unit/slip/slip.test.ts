@@ -1,0 +1,154 @@
+import { describe, expect, it } from "vitest";
+import type { SessionSeries } from "@/lib/channels/roles";
+import { slipRatio } from "@/lib/slip/slip-ratio";
+import { effectiveRollingRadiusM } from "@/lib/slip/effective-rolling-radius";
+import { calibrateSlipZero } from "@/lib/slip/calibrate-slip-zero";
+import { driveSlip } from "@/lib/slip/drive-slip";
+import { spinEvents } from "@/lib/slip/spin-events";
+import { cornerExitSlip } from "@/lib/slip/corner-exit-slip";
+import { slipThrottleScatter } from "@/lib/slip/slip-throttle-scatter";
+
+const KMH = 1 / 3.6; // NIST SP 811 App. B: km/h → m/s = 1/3.6 (exact)
+
+describe("slipRatio — SAE J670 / ISO 8855 / Pacejka ch.1 longitudinal slip, front wheel as ground reference (formula from memory; standards not open)", () => {
+  it.each([
+    // [rear km/h, front km/h, expected, source]
+    [110, 100, 0.1, "REFERENCES.md worked case: front 100, rear 110 → 0.10 (divide by the reference/ground speed, not 10/110)"],
+    [100, 100, 0, "free rolling: Ω·re = Vx → 0 (definition)"],
+    [0, 100, -1, "locked rear wheel → −1 (SAE J670 definition)"],
+    [90, 100, -0.1, "braking: negative (definition)"],
+  ])("rear %d km/h, front %d km/h → %d (%s)", (rear, front, expected) => {
+    expect(slipRatio(rear * KMH, front * KMH)).toBeCloseTo(expected, 12);
+  });
+  it("is not defined without forward speed", () => {
+    expect(slipRatio(5, 0)).toBeNaN();
+  });
+});
+
+describe("effectiveRollingRadiusM — simple toroidal crown model r0 − rc(1 − cos φ)", () => {
+  it.each([
+    // cos 60° = 1/2 exactly (trigonometry): r0 0.32, rc 0.1 → 0.32 − 0.05 = 0.27
+    [0.32, 0.1, 60, 0.27],
+    [0.32, 0.1, 0, 0.32],
+    // cos 90° = 0 → r0 − rc
+    [0.32, 0.1, 90, 0.22],
+  ])("r0 %d m, crown %d m, lean %d° → %d m (plain trigonometry)", (r0, rc, lean, expected) => {
+    expect(effectiveRollingRadiusM(r0, rc, lean)).toBeCloseTo(expected, 12);
+  });
+});
+
+/** A synthetic straight: constant-speed cruise, then a hard drive with spin. */
+function makeSeries(opts: { mismatch: number; n?: number }): SessionSeries {
+  const n = opts.n ?? 400;
+  const dt = 0.01;
+  const timeS = new Float64Array(n);
+  const front = new Float32Array(n);
+  const rear = new Float32Array(n);
+  const throttle = new Float32Array(n);
+  const lean = new Float32Array(n);
+  for (let i = 0; i < n; i++) {
+    timeS[i] = i * dt;
+    front[i] = 50;
+    // Cruise: no slip, the rear's entered circumference is off by `mismatch`.
+    let trueSlip = 0;
+    throttle[i] = 30;
+    if (i >= 300 && i < 340) {
+      trueSlip = 0.2; // spin burst
+      throttle[i] = 90;
+    }
+    rear[i] = 50 * (1 + trueSlip) * (1 + opts.mismatch);
+  }
+  return { timeS, channels: { speed_front: front, speed_rear: rear, throttle, lean_angle: lean } };
+}
+
+describe("calibrateSlipZero and driveSlip", () => {
+  it("finds the circumference mismatch as the median ratio on steady running and removes it", () => {
+    const s = makeSeries({ mismatch: 0.02 });
+    const cal = calibrateSlipZero(s);
+    expect(cal.applied).toBe(true);
+    // Float32 storage of 51 m/s and 50 m/s: 51/50 = 1.02 to ~1e-7.
+    expect(cal.ratio).toBeCloseTo(1.02, 6);
+    const slip = driveSlip(s);
+    expect(slip[100]).toBeCloseTo(0, 6);
+    // During the burst: rear = 50·1.2·1.02, zero ratio 1.02 → slip (60 − 50)/50 = 0.2 (definition)
+    expect(slip[320]).toBeCloseTo(0.2, 5);
+  });
+
+  it("without calibration the mismatch shows as slip", () => {
+    const slip = driveSlip(makeSeries({ mismatch: 0.02 }), { calibrate: false });
+    expect(slip[100]).toBeCloseTo(0.02, 6);
+  });
+
+  it("gives NaN below 30 km/h front speed (PRODUCT §5)", () => {
+    const s = makeSeries({ mismatch: 0 });
+    s.channels.speed_front![10] = 29 * KMH;
+    s.channels.speed_front![11] = 31 * KMH;
+    const slip = driveSlip(s, { zeroRatio: 1 });
+    expect(slip[10]).toBeNaN();
+    expect(Number.isFinite(slip[11])).toBe(true);
+  });
+
+  it("lean correction removes the slip that lean alone would show", () => {
+    // At 60° lean with r0 0.32 m and crown 0.1 m both tyres roll at 0.27 m (see above);
+    // if only the rear is corrected, a rear reading equal to the front reads as slip −(1 − 0.27/0.32).
+    const s = makeSeries({ mismatch: 0 });
+    s.channels.lean_angle!.fill(60);
+    const slip = driveSlip(s, { zeroRatio: 1, lean: { rearRadiusM: 0.32, rearCrownRadiusM: 0.1 } });
+    expect(slip[100]).toBeCloseTo(0.27 / 0.32 - 1, 6);
+    const both = driveSlip(s, {
+      zeroRatio: 1,
+      lean: { rearRadiusM: 0.32, rearCrownRadiusM: 0.1, frontRadiusM: 0.3, frontCrownRadiusM: 0.09375 },
+    });
+    // Front 0.30 − 0.09375·0.5 = 0.253125 m = 0.84375·0.30, the rear's scale 0.27/0.32 = 0.84375
+    // → both readings shrink alike → slip 0 (arithmetic)
+    expect(both[100]).toBeCloseTo(0, 6);
+  });
+});
+
+describe("spinEvents", () => {
+  it("finds the spin burst with its start, end, duration and peak", () => {
+    const s = makeSeries({ mismatch: 0 });
+    const slip = driveSlip(s, { zeroRatio: 1 });
+    const ev = spinEvents(slip, s.channels.throttle, s.timeS, { targetSlip: 0.08, minThrottlePct: 50, minDurationS: 0.1 });
+    expect(ev).toHaveLength(1);
+    expect(ev[0].startTimeS).toBeCloseTo(3.0, 9);
+    expect(ev[0].endTimeS).toBeCloseTo(3.39, 9);
+    // 40 samples at 100 Hz = 0.40 s (arithmetic)
+    expect(ev[0].durationS).toBeCloseTo(0.4, 9);
+    expect(ev[0].peakSlip).toBeCloseTo(0.2, 5);
+  });
+  it("ignores spin shorter than the minimum duration and spin with a closed throttle", () => {
+    const s = makeSeries({ mismatch: 0 });
+    const slip = driveSlip(s, { zeroRatio: 1 });
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, { minDurationS: 0.5 })).toHaveLength(0);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, { minThrottlePct: 95 })).toHaveLength(0);
+  });
+});
+
+describe("cornerExitSlip and slipThrottleScatter", () => {
+  it("summarises slip per corner exit window", () => {
+    const n = 300;
+    const slip = new Float32Array(n);
+    const dist = new Float64Array(n);
+    const t = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      dist[i] = i; // 1 m per sample
+      t[i] = i * 0.02;
+      slip[i] = i >= 120 && i < 130 ? 0.15 : 0.01;
+    }
+    const res = cornerExitSlip(slip, dist, t, [{ name: "A", distanceM: 100 }, { name: "B", distanceM: 200 }], { exitLengthM: 150 });
+    expect(res[0]).toMatchObject({ name: "A", fromM: 100, toM: 200, peakAtM: 120, sampleCount: 100 });
+    expect(res[0].peakSlip).toBeCloseTo(0.15, 6);
+    // 10 samples × 0.02 s above 0.08
+    expect(res[0].timeAboveTargetS).toBeCloseTo(0.2, 9);
+    expect(res[1].peakSlip).toBeCloseTo(0.01, 6);
+    expect(res[1].toM).toBe(350);
+  });
+  it("drops NaN pairs and thins to the point budget", () => {
+    const slip = Float32Array.from([0.1, NaN, 0.2, 0.3, 0.4, 0.5]);
+    const th = Float32Array.from([10, 20, 30, NaN, 50, 60]);
+    const sc = slipThrottleScatter(slip, th, 2);
+    expect(Array.from(sc.throttlePct)).toEqual([10, 50]);
+    expect(sc.slip).toHaveLength(2);
+  });
+});

@@ -46,7 +46,7 @@ export function SignInForm({ next }: { next?: string }) {
         {formState.errors.password && <p className="mt-1 text-xs text-alert-400">{formState.errors.password.message}</p>}
       </div>
       {error && (
-        <p role="alert" className="rounded-md border border-alert-500/50 bg-alert-500/10 px-3 py-2 text-sm text-alert-400">
+        <p role="alert" data-testid="form-error" className="rounded-md border border-alert-500/50 bg-alert-500/10 px-3 py-2 text-sm text-alert-400">
           {error}
         </p>
       )}

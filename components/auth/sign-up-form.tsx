@@ -60,7 +60,7 @@ export function SignUpForm({ next, email }: { next?: string; email?: string }) {
         {err("confirm")}
       </div>
       {error && (
-        <p role="alert" className="rounded-md border border-alert-500/50 bg-alert-500/10 px-3 py-2 text-sm text-alert-400">
+        <p role="alert" data-testid="form-error" className="rounded-md border border-alert-500/50 bg-alert-500/10 px-3 py-2 text-sm text-alert-400">
           {error}
         </p>
       )}

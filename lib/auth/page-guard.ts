@@ -5,9 +5,13 @@ import { redirect, notFound } from "next/navigation";
 import { requireTeam, type GuardOptions, type TeamContext } from "./guard";
 import { HttpError } from "@/lib/http/http-error";
 
-export async function pageTeam(opts: GuardOptions = {}, from = "/home"): Promise<TeamContext> {
+export async function pageTeam(opts: GuardOptions = {}, fromPath?: string): Promise<TeamContext> {
+  const h = await headers();
+  // proxy.ts passes the requested path; only same-site paths are used as a return address.
+  const asked = h.get("x-lapbench-path");
+  const from = fromPath ?? (asked && asked.startsWith("/") && !asked.startsWith("//") ? asked : "/home");
   try {
-    return await requireTeam(await headers(), opts);
+    return await requireTeam(h, opts);
   } catch (e) {
     if (e instanceof HttpError) {
       if (e.status === 401) redirect(`/sign-in?next=${encodeURIComponent(from)}`);

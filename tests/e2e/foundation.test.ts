@@ -30,11 +30,12 @@ describe("demo sign-ins", () => {
       const links = await page.getByRole("navigation", { name: "Main" }).getByRole("link").allTextContents();
       const expected = NAV_ITEMS.filter((i) => i.roles.includes(u.role)).map((i) => i.label);
       expect(links).toEqual(expected);
-      await page.getByText(u.role === "rider" ? "Your sessions" : "Recent sessions").waitFor();
+      await page.getByRole("heading", { name: u.role === "rider" ? "Your sessions" : "Recent sessions" }).waitFor();
       await shot(page, `home-${u.role}`);
 
       await page.getByRole("link", { name: "Team", exact: true }).click();
       await page.waitForURL(/\/team$/);
+      await page.getByTestId("members-table").locator("tbody tr").first().waitFor();
       const rows = await page.getByTestId("members-table").locator("tbody tr").count();
       expect(rows).toBeGreaterThanOrEqual(DEMO_USERS.length);
       const inviteVisible = await page.getByRole("button", { name: "Send invitation" }).isVisible();
@@ -50,7 +51,7 @@ describe("demo sign-ins", () => {
     await page.getByLabel("E-mail").fill(DEMO_USERS[0].email);
     await page.getByLabel("Password").fill("not-the-password");
     await page.getByRole("button", { name: "Sign in" }).click();
-    await expect(page.getByRole("alert").textContent()).resolves.toMatch(/invalid|password/i);
+    await expect(page.getByTestId("form-error").textContent()).resolves.toMatch(/invalid|password/i);
     expect(page.url()).toMatch(/\/sign-in/);
     await page.close();
   });
@@ -71,7 +72,7 @@ describe("invitation by e-mail", () => {
     await signIn(op, DEMO_USERS[0].email, DEMO_PASSWORD);
     await op.goto(`${appUrl()}/team`);
     await op.getByLabel("E-mail").fill(newcomer);
-    await op.getByLabel("Role").selectOption("engineer");
+    await op.getByLabel("Role", { exact: true }).selectOption("engineer");
     await op.getByRole("button", { name: "Send invitation" }).click();
     await op.getByText(`Invitation sent to ${newcomer}.`).waitFor();
     await op.getByTestId("invitations-table").getByText(newcomer).waitFor();

@@ -14,6 +14,14 @@ const ALL: readonly TeamRole[] = ["owner", "engineer", "rider", "viewer"];
 
 export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/home", label: "Team home", roles: ALL },
+  { href: "/brief", label: "Rider brief", roles: ALL },
+  { href: "/sessions", label: "Sessions", roles: ALL },
+  { href: "/compare", label: "Compare", roles: ALL },
+  { href: "/upload", label: "Upload", roles: ["owner", "engineer"] },
+  { href: "/events", label: "Events", roles: ALL },
+  { href: "/tracks", label: "Tracks", roles: ALL },
+  { href: "/bikes", label: "Bikes", roles: ALL },
+  { href: "/settings", label: "Settings", roles: ALL },
   { href: "/team", label: "Team", roles: ALL },
 ];
 

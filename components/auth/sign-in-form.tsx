@@ -29,7 +29,7 @@ export function SignInForm({ next }: { next?: string }) {
       );
       return;
     }
-    router.push(next && next.startsWith("/") && !next.startsWith("//") ? next : "/home");
+    router.push(next && next.startsWith("/") && !next.startsWith("//") ? next : "/");
     router.refresh();
   }
 

@@ -29,7 +29,10 @@ export interface ImportPreview {
 }
 
 export async function readFirstBytes(url: string, max = SNIFF_BYTES): Promise<{ bytes: Buffer; complete: boolean }> {
-  const res = await fetch(url);
+  // no-store: inside Next.js a cacheable fetch is tee'd for its data cache, and cancelling one branch
+  // of a tee only settles once the other is cancelled too — so reading the first bytes of a file
+  // larger than SNIFF_BYTES hung the upload callback.
+  const res = await fetch(url, { cache: "no-store" });
   if (!res.ok || !res.body) throw new Error(`the stored file could not be read (${res.status})`);
   const reader = res.body.getReader();
   const parts: Buffer[] = [];
@@ -45,7 +48,8 @@ export async function readFirstBytes(url: string, max = SNIFF_BYTES): Promise<{ 
     size += value.byteLength;
     if (size >= max) break;
   }
-  if (!complete) await reader.cancel().catch(() => {});
+  // Not awaited: the bytes needed are in hand, and a cancel must never hold up the import.
+  if (!complete) void reader.cancel().catch(() => {});
   const all = Buffer.concat(parts);
   return { bytes: complete ? all : all.subarray(0, max), complete };
 }

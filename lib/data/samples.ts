@@ -48,7 +48,13 @@ export async function writeSessionSamples(
   series: ParsedSeries,
   onProgress?: (fraction: number) => void,
 ): Promise<StoredChannel[]> {
-  await sequelize.query("DELETE FROM channels WHERE session_id = ?", { replacements: [sessionId], transaction: t, type: QueryTypes.DELETE });
+  // Delete by primary key, and only when there is something to delete: a DELETE that matches no
+  // row still gap-locks the end of the session_id index, and two workers ingesting new sessions
+  // at once would then deadlock on each other's channel inserts.
+  const old = await sequelize.query<{ id: number }>("SELECT id FROM channels WHERE session_id = ?", { replacements: [sessionId], transaction: t, type: QueryTypes.SELECT });
+  if (old.length) {
+    await sequelize.query(`DELETE FROM channels WHERE id IN (${old.map(() => "?").join(",")})`, { replacements: old.map((r) => r.id), transaction: t, type: QueryTypes.DELETE });
+  }
   const durationS = series.rows > 1 ? series.timeS[series.rows - 1] - series.timeS[0] : 0;
   const defs = [
     { name: "Time", role: "time", unit: "s", values: series.timeS as Float64Array | Float32Array, sampleCount: series.rows, min: series.timeS[0] ?? NaN, max: series.timeS[series.rows - 1] ?? NaN, valueType: "f64" },
@@ -133,6 +139,54 @@ export async function readChannels(sequelize: Sequelize, channels: ChannelInfo[]
     // Copy through a byte view: blob buffers need not be aligned to the element size.
     new Uint8Array(arr.buffer, off * width, r.data.byteLength).set(r.data);
     offsets.set(r.channel_id, off + r.data.byteLength / width);
+  }
+  return out;
+}
+
+/**
+ * Read samples [startIndex, endIndex) of each channel, fetching only the chunks that cover them
+ * (chunk_index BETWEEN first AND last — a range of the primary key, so a lap of a long session
+ * reads a few blobs, not the whole channel). The range is cut at the end of the stored samples
+ * (a channel's sample_count counts finite samples only, so the chunks themselves say where rows end).
+ */
+export async function readChannelRange(
+  sequelize: Sequelize,
+  channels: ChannelInfo[],
+  startIndex: number,
+  endIndex: number,
+): Promise<Map<number, Float32Array | Float64Array>> {
+  const out = new Map<number, Float32Array | Float64Array>();
+  const start = Math.max(0, Math.floor(startIndex));
+  const end = Math.max(start, Math.ceil(endIndex));
+  const empty = (c: ChannelInfo) => (c.valueType === "f64" ? new Float64Array(0) : new Float32Array(0));
+  for (const c of channels) out.set(c.id, empty(c));
+  if (channels.length === 0 || end <= start) return out;
+  const rows = await sequelize.query<{ channel_id: number; chunk_index: number; data: Buffer }>(
+    `SELECT channel_id, chunk_index, data FROM channel_chunks
+      WHERE channel_id IN (${channels.map(() => "?").join(",")}) AND chunk_index BETWEEN ? AND ?`,
+    { replacements: [...channels.map((c) => c.id), Math.floor(start / CHUNK_SAMPLES), Math.floor((end - 1) / CHUNK_SAMPLES)], type: QueryTypes.SELECT },
+  );
+  const byId = new Map(channels.map((c) => [c.id, c]));
+  const width = (id: number) => (byId.get(id)!.valueType === "f64" ? 8 : 4);
+  // Rows stored per channel within the range decide each array's length.
+  const stored = new Map<number, number>();
+  for (const r of rows) {
+    const rowsEnd = Math.min(end, r.chunk_index * CHUNK_SAMPLES + r.data.byteLength / width(r.channel_id));
+    stored.set(r.channel_id, Math.max(stored.get(r.channel_id) ?? start, rowsEnd));
+  }
+  for (const [id, rowsEnd] of stored) {
+    const c = byId.get(id)!;
+    out.set(id, c.valueType === "f64" ? new Float64Array(rowsEnd - start) : new Float32Array(rowsEnd - start));
+  }
+  for (const r of rows) {
+    const arr = out.get(r.channel_id)!;
+    const w = arr.BYTES_PER_ELEMENT;
+    const chunkStart = r.chunk_index * CHUNK_SAMPLES;
+    const from = Math.max(start, chunkStart);
+    const to = Math.min(start + arr.length, chunkStart + r.data.byteLength / w);
+    if (to <= from) continue;
+    // Copy through a byte view: blob buffers need not be aligned to the element size.
+    new Uint8Array(arr.buffer, (from - start) * w, (to - from) * w).set(r.data.subarray((from - chunkStart) * w, (to - chunkStart) * w));
   }
   return out;
 }

@@ -28,5 +28,6 @@ export async function signIn(page: Page, email: string, password: string): Promi
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/home$/, { timeout: 30_000 });
+  // Riders land on their Rider brief, everyone else on the Team home.
+  await page.waitForURL(/\/(home|brief)$/, { timeout: 30_000 });
 }

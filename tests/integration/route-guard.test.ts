@@ -10,6 +10,10 @@ import { createTeamWithRoles, req, params, type TestTeam } from "./helpers/teams
 import * as sessionsRoute from "@/app/api/sessions/route";
 import * as sessionRoute from "@/app/api/sessions/[id]/route";
 import * as teamApiRoute from "@/app/api/team/route";
+import * as seriesRoute from "@/app/api/series/route";
+import * as lapsRoute from "@/app/api/sessions/[id]/laps/route";
+import * as lapsCsvRoute from "@/app/api/sessions/[id]/laps.csv/route";
+import * as lapGpxRoute from "@/app/api/sessions/[id]/laps/[lap]/gpx/route";
 import type { TeamRole } from "@/lib/auth/permissions";
 
 const ROLES: TeamRole[] = ["owner", "engineer", "rider", "viewer"];
@@ -32,7 +36,15 @@ beforeAll(async () => {
 
 describe("every API route refuses a request without a session", () => {
   // The list is checked against the files on disk, so a new route without a row here fails.
-  const tested = ["api/sessions/route.ts", "api/sessions/[id]/route.ts", "api/team/route.ts"];
+  const tested = [
+    "api/sessions/route.ts",
+    "api/sessions/[id]/route.ts",
+    "api/team/route.ts",
+    "api/series/route.ts",
+    "api/sessions/[id]/laps/route.ts",
+    "api/sessions/[id]/laps.csv/route.ts",
+    "api/sessions/[id]/laps/[lap]/gpx/route.ts",
+  ];
   const exempt = ["api/auth/[...all]/route.ts", "api/uploadthing/route.ts"]; // better-auth's own and the upload SDK's (guarded in its middleware)
 
   it("covers all route files under app/api", () => {
@@ -52,6 +64,10 @@ describe("every API route refuses a request without a session", () => {
     ["GET /api/sessions", () => sessionsRoute.GET(req("/api/sessions"), params({}))],
     ["GET /api/sessions/:id", () => sessionRoute.GET(req(`/api/sessions/${aSessionRider}`), params({ id: String(aSessionRider) }))],
     ["GET /api/team", () => teamApiRoute.GET(req("/api/team"), params({}))],
+    ["GET /api/series", () => seriesRoute.GET(req(`/api/series?laps=${aSessionRider}:1&roles=speed_front&x=distance&width=800`), params({}))],
+    ["GET /api/sessions/:id/laps", () => lapsRoute.GET(req(`/api/sessions/${aSessionRider}/laps`), params({ id: String(aSessionRider) }))],
+    ["GET /api/sessions/:id/laps.csv", () => lapsCsvRoute.GET(req(`/api/sessions/${aSessionRider}/laps.csv`), params({ id: String(aSessionRider) }))],
+    ["GET /api/sessions/:id/laps/:lap/gpx", () => lapGpxRoute.GET(req(`/api/sessions/${aSessionRider}/laps/1/gpx`), params({ id: String(aSessionRider), lap: "1" }))],
   ])("%s → 401", async (_name, call) => {
     const res = await call();
     expect(res.status).toBe(401);
@@ -103,6 +119,18 @@ describe("team isolation", () => {
     const res = await sessionRoute.GET(req(`/api/sessions/${aSessionRider}`, b.members[role].cookie), params({ id: String(aSessionRider) }));
     expect(res.status).toBe(404);
     expect(JSON.stringify(await res.json())).not.toContain("A FP1");
+  });
+
+  it.each(ROLES)("%s of team B gets 404 for team A's laps, lap table and lap GPX", async (role) => {
+    const cookie = b.members[role].cookie;
+    const id = String(aSessionRider);
+    for (const res of [
+      await lapsRoute.GET(req(`/api/sessions/${id}/laps`, cookie), params({ id })),
+      await lapsCsvRoute.GET(req(`/api/sessions/${id}/laps.csv`, cookie), params({ id })),
+      await lapGpxRoute.GET(req(`/api/sessions/${id}/laps/1/gpx`, cookie), params({ id, lap: "1" })),
+    ]) {
+      expect(res.status).toBe(404);
+    }
   });
 
   it("a non-numeric or unknown id is a 404, not an error", async () => {

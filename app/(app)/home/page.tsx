@@ -3,6 +3,7 @@ import { Suspense } from "react";
 import { pageTeam } from "@/lib/auth/page-guard";
 import { roleCan } from "@/lib/auth/guard";
 import { RecentSessions } from "@/components/sessions/recent-sessions";
+import { FindingsToReview } from "@/components/findings/findings-to-review";
 
 export const metadata: Metadata = { title: "Team home" };
 
@@ -29,7 +30,9 @@ export default async function HomePage() {
         <aside className="space-y-6">
           <section className="card" aria-labelledby="findings">
             <h2 id="findings" className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-300">Findings to review</h2>
-            <p className="text-sm text-ink-400">Nothing to review. Findings appear here when an analysed session shows something that looks wrong.</p>
+            <Suspense fallback={<div className="h-16 animate-pulse rounded bg-ink-850" />}>
+              <FindingsToReview ctx={ctx} />
+            </Suspense>
           </section>
           <section className="card" aria-labelledby="you">
             <h2 id="you" className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-300">Your access</h2>

@@ -1,0 +1,81 @@
+import type { Metadata } from "next";
+import { Suspense } from "react";
+import { notFound } from "next/navigation";
+import { pageTeam } from "@/lib/auth/page-guard";
+import { roleCan } from "@/lib/auth/guard";
+import { HttpError } from "@/lib/http/http-error";
+import { parseId } from "@/lib/http/parse-id";
+import { getSessionOverview, type SessionOverview } from "@/lib/data/session-overview";
+import { sessionFormOptions } from "@/lib/data/session-details";
+import { SessionHeader } from "@/components/session/session-header";
+import { SessionStatus } from "@/components/session/session-status";
+import { ChannelTable } from "@/components/session/channel-table";
+import { DetailsEditor } from "@/components/session/details-editor";
+import { SessionLaps } from "@/components/session/session-laps";
+import { SessionFindings } from "@/components/session/session-findings";
+import { SessionAnalysisLinks } from "@/components/session/session-analysis-links";
+
+export const metadata: Metadata = { title: "Session" };
+
+const block = <div className="h-24 animate-pulse rounded-lg bg-ink-900" />;
+
+export default async function SessionPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const ctx = await pageTeam({}, `/sessions/${id}`);
+  const sessionId = parseId(id);
+  if (!sessionId) notFound();
+  let o: SessionOverview;
+  try {
+    o = await getSessionOverview(ctx, sessionId);
+  } catch (e) {
+    // Another team's session, or one a rider may not see: not confirmed to exist.
+    if (e instanceof HttpError && e.status === 404) notFound();
+    throw e;
+  }
+  const canEdit = roleCan(ctx.role, { "session-data": ["upload"] });
+  const canAcknowledge = roleCan(ctx.role, { finding: ["acknowledge"] });
+  const options = canEdit ? await sessionFormOptions(ctx.teamId) : null;
+  const s = o.session;
+  const ready = s.status === "ready";
+
+  return (
+    <div className="space-y-6">
+      <SessionHeader o={o} />
+      <SessionStatus initial={{ id: s.id, status: s.status, progress: s.progress, statusReason: s.statusReason }} canEdit={canEdit} />
+
+      {ready && (
+        <>
+          <SessionAnalysisLinks sessionId={s.id} />
+          <Suspense fallback={block}>
+            <SessionFindings sessionId={s.id} teamId={ctx.teamId} canAcknowledge={canAcknowledge} />
+          </Suspense>
+          <Suspense fallback={block}>
+            <SessionLaps sessionId={s.id} teamId={ctx.teamId} />
+          </Suspense>
+          <section className="card" aria-labelledby="channels">
+            <h2 id="channels" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-300">Channels</h2>
+            <ChannelTable channels={o.channels} />
+          </section>
+        </>
+      )}
+
+      {canEdit && options && (
+        <DetailsEditor
+          sessionId={s.id}
+          options={options}
+          details={{
+            title: s.title,
+            kind: s.kind,
+            eventId: s.eventId,
+            bikeId: s.bikeId,
+            engineId: s.engineId,
+            riderId: s.riderId,
+            startedAt: s.startedAt,
+            conditions: s.conditions ?? "",
+            sharedWithRiders: s.sharedWithRiders,
+          }}
+        />
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,19 @@
+import "server-only";
+import { notFound } from "next/navigation";
+import { pageTeam } from "@/lib/auth/page-guard";
+import { getSessionForViewer, type SessionDetail } from "@/lib/data/session-detail";
+import type { TeamContext } from "@/lib/auth/guard";
+import { HttpError } from "@/lib/http/http-error";
+
+/** The signed-in member and a session they may see (PRODUCT §7), or the 404 page. */
+export async function viewerSession(idParam: string, from: string): Promise<{ ctx: TeamContext; session: SessionDetail }> {
+  const ctx = await pageTeam({}, from);
+  const id = Number(idParam);
+  if (!Number.isInteger(id) || id <= 0) notFound();
+  try {
+    return { ctx, session: await getSessionForViewer(ctx, id) };
+  } catch (e) {
+    if (e instanceof HttpError && e.status === 404) notFound();
+    throw e;
+  }
+}

@@ -1,0 +1,76 @@
+"use server";
+/**
+ * Session import and details actions. Each checks the caller's role with the shared guard, validates
+ * with the same zod schema the form uses, then calls lib/data/session-details.ts (which checks the
+ * role and the team again), revalidates the screens that show the session, and answers the form
+ * with errors by field.
+ */
+import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { actionTeam } from "@/lib/auth/page-guard";
+import { HttpError } from "@/lib/http/http-error";
+import { getSequelize } from "@/models/db";
+import { confirmSessionImport, reimportSession, updateSessionDetails } from "@/lib/data/session-details";
+import { importFormSchema, sessionDetailsSchema, issuesToErrors, type FormState, type ImportFormInput, type SessionDetailsInput } from "@/lib/forms/session-form";
+
+const UPLOAD = { permission: { "session-data": ["upload"] } } as const;
+
+function failure(e: unknown): FormState {
+  if (e instanceof HttpError) {
+    const details = e.details && typeof e.details === "object" ? (e.details as Record<string, string>) : undefined;
+    return { ok: false, message: e.message, errors: details };
+  }
+  throw e;
+}
+
+function revalidateSession(sessionId: number) {
+  revalidatePath(`/sessions/${sessionId}`);
+  revalidatePath("/sessions");
+  revalidatePath("/home");
+}
+
+/** Import screen: details + column mapping → Import profile saved, parse queued, on to the session. */
+export async function confirmImportAction(sessionId: number, input: ImportFormInput): Promise<FormState> {
+  const g = await actionTeam(UPLOAD);
+  if (!g.ctx) return { ok: false, message: g.error };
+  const parsed = importFormSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: issuesToErrors(parsed.error.issues) };
+  try {
+    await confirmSessionImport(getSequelize(), g.ctx, Number(sessionId), parsed.data);
+  } catch (e) {
+    return failure(e);
+  }
+  revalidateSession(sessionId);
+  redirect(`/sessions/${sessionId}`);
+}
+
+/** Session page: edit the details of a session at any status. */
+export async function saveSessionDetailsAction(sessionId: number, input: SessionDetailsInput): Promise<FormState> {
+  const g = await actionTeam(UPLOAD);
+  if (!g.ctx) return { ok: false, message: g.error };
+  const parsed = sessionDetailsSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: issuesToErrors(parsed.error.issues) };
+  try {
+    await updateSessionDetails(getSequelize(), g.ctx, Number(sessionId), parsed.data);
+  } catch (e) {
+    return failure(e);
+  }
+  revalidateSession(sessionId);
+  return { ok: true, message: "Details saved." };
+}
+
+/** "Re-import with another mapping": the kept file is read again and the mapping screen opens. */
+export async function reimportAction(_prev: FormState, form: FormData): Promise<FormState> {
+  const g = await actionTeam(UPLOAD);
+  if (!g.ctx) return { ok: false, message: g.error };
+  const sessionId = Number(form.get("sessionId"));
+  let status: string;
+  try {
+    ({ status } = await reimportSession(getSequelize(), g.ctx, sessionId));
+  } catch (e) {
+    return failure(e);
+  }
+  revalidateSession(sessionId);
+  // GPX/NMEA need no mapping: they are queued again at once and the session page shows progress.
+  redirect(status === "mapping" ? `/sessions/${sessionId}/import` : `/sessions/${sessionId}`);
+}

@@ -1,0 +1,132 @@
+/**
+ * Stores the analysis of one session (laps, findings, summary) inside the caller's transaction:
+ * used by the ingest worker right after the samples are written and by re-analysis from the
+ * stored chunks. Replaces the session's laps and findings; a person's acknowledgement of a
+ * finding and "invalid" mark on a lap carry over to the same event or lap found again.
+ */
+import { Op, type Sequelize, type Transaction } from "sequelize";
+import { initModels, Bike, Finding, Lap, RaceEvent, RideSession, Track } from "@/models";
+import type { SeriesLike } from "@/lib/laps/types";
+import { analyseSeries, type SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
+import { guessTrack, trackGatesForAnalysis } from "./tracks";
+
+/** Same event after a re-analysis: same kind and lap, start within this many seconds. */
+export const SAME_FINDING_WITHIN_S = 0.2;
+
+/** The session's track: its own, else its event's, else the nearest of the team's tracks. */
+async function resolveTrack(sequelize: Sequelize, t: Transaction, session: RideSession, series: SeriesLike): Promise<Track | null> {
+  if (session.trackId != null) {
+    const own = await Track.findOne({ where: { id: session.trackId, teamId: session.teamId }, transaction: t });
+    if (own) return own;
+  }
+  if (session.eventId != null) {
+    const ev = await RaceEvent.findOne({ where: { id: session.eventId, teamId: session.teamId }, transaction: t });
+    if (ev?.trackId != null) {
+      const viaEvent = await Track.findOne({ where: { id: ev.trackId, teamId: session.teamId }, transaction: t });
+      if (viaEvent) return viaEvent;
+    }
+  }
+  return guessTrack(sequelize, session.teamId, series, { transaction: t });
+}
+
+export async function analyseSessionInTransaction(sequelize: Sequelize, t: Transaction, sessionId: number, series: SeriesLike): Promise<SessionAnalysisSummary> {
+  initModels(sequelize);
+  const t0 = performance.now();
+  const session = await RideSession.findByPk(sessionId, { transaction: t });
+  if (!session) throw new Error(`session ${sessionId} not found`);
+  const track = await resolveTrack(sequelize, t, session, series);
+  const bike = session.bikeId != null ? await Bike.findOne({ where: { id: session.bikeId, teamId: session.teamId }, transaction: t }) : null;
+
+  const oldLaps = await Lap.findAll({ where: { sessionId, isInvalid: true }, attributes: ["number", "startTimeS"], transaction: t });
+  const oldAcks = await Finding.findAll({
+    where: { sessionId, [Op.or]: [{ acknowledgedAt: { [Op.ne]: null } }, { note: { [Op.ne]: null } }] },
+    transaction: t,
+  });
+
+  const analysis = analyseSeries(
+    series,
+    track
+      ? { gates: trackGatesForAnalysis(track), pitSpeedLimitMs: track.pitSpeedLimitKmh != null ? track.pitSpeedLimitKmh / 3.6 : null, thresholds: track.thresholds }
+      : null,
+    bike
+      ? {
+          revCeilingRpm: bike.revCeilingRpm,
+          forkStrokeM: bike.forkStrokeMm != null ? bike.forkStrokeMm / 1000 : null,
+          shockStrokeM: bike.shockStrokeMm != null ? bike.shockStrokeMm / 1000 : null,
+          thresholds: bike.thresholds,
+        }
+      : null,
+    { isInvalid: (lap) => oldLaps.some((o) => Math.abs(o.startTimeS - lap.startTimeS) <= SAME_FINDING_WITHIN_S) },
+  );
+
+  // Delete by primary key, and only rows that exist: a DELETE … WHERE session_id that matches
+  // nothing takes a gap lock at the end of the index, and two sessions ingested at once would then
+  // deadlock on each other's inserts.
+  const oldLapIds = (await Lap.findAll({ where: { sessionId }, attributes: ["id"], transaction: t })).map((r) => r.id);
+  const oldFindingIds = (await Finding.findAll({ where: { sessionId }, attributes: ["id"], transaction: t })).map((r) => r.id);
+  if (oldLapIds.length) await Lap.destroy({ where: { id: oldLapIds }, transaction: t });
+  if (oldFindingIds.length) await Finding.destroy({ where: { id: oldFindingIds }, transaction: t });
+  if (analysis.laps.length) {
+    await Lap.bulkCreate(
+      analysis.laps.map((l) => ({
+        sessionId,
+        number: l.number,
+        startTimeS: l.startTimeS,
+        endTimeS: l.endTimeS,
+        lapTimeMs: l.lapTimeMs,
+        distanceM: l.distanceM,
+        isOutLap: l.outLap,
+        isInLap: l.inLap,
+        isInvalid: !!l.invalid,
+        pitPass: l.pitPass,
+        sectorTimesMs: l.sectorTimesMs as number[],
+        topSpeedMs: l.topSpeedMs,
+        stats: { ...l.stats, complete: l.complete },
+      })),
+      { transaction: t },
+    );
+  }
+  if (analysis.findings.length) {
+    await Finding.bulkCreate(
+      analysis.findings.map((f) => {
+        const before = oldAcks.find(
+          (o) => o.kind === f.kind && o.lapNumber === f.lapNumber && o.startTimeS != null && Math.abs(o.startTimeS - f.startTimeS) <= SAME_FINDING_WITHIN_S,
+        );
+        return {
+          teamId: session.teamId,
+          sessionId,
+          kind: f.kind,
+          lapNumber: f.lapNumber,
+          startTimeS: f.startTimeS,
+          endTimeS: f.endTimeS,
+          distanceM: f.distanceM,
+          lat: f.lat,
+          lon: f.lon,
+          severity: f.severity,
+          measuredValue: Number.isFinite(f.measuredValue) ? f.measuredValue : null,
+          thresholdValue: Number.isFinite(f.thresholdValue) ? f.thresholdValue : null,
+          unit: f.unit,
+          message: f.storedMessage,
+          acknowledgedBy: before?.acknowledgedBy ?? null,
+          acknowledgedAt: before?.acknowledgedAt ?? null,
+          note: before?.note ?? null,
+        };
+      }),
+      { transaction: t },
+    );
+  }
+
+  const summary: SessionAnalysisSummary = {
+    ...analysis.summary,
+    analysedAt: new Date().toISOString(),
+    trackId: track?.id ?? null,
+    analysisMs: Math.round(performance.now() - t0),
+  };
+  // Merge: the import preview (and anything else kept there) stays.
+  const previous = (session.summary ?? {}) as Record<string, unknown>;
+  await RideSession.update(
+    { summary: { ...previous, ...summary }, ...(track && session.trackId !== track.id ? { trackId: track.id } : {}) },
+    { where: { id: sessionId }, transaction: t },
+  );
+  return summary;
+}

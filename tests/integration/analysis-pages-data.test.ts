@@ -1,0 +1,168 @@
+/**
+ * The data behind Drive slip, Suspension use, Gears and the Rider brief, on the sample file
+ * three-laps-20hz.csv taken through the real upload and ingest path. Ground truth:
+ * sample-logs/files/three-laps-20hz.truth.json (the generator's own record of the ride).
+ */
+import { describe, it, expect, beforeAll, afterAll } from "vitest";
+import fs from "node:fs";
+import path from "node:path";
+import { getSequelize } from "@/models/db";
+import { initModels } from "@/models";
+import { slipAnalysis, suspensionAnalysis, gearAnalysis, riderBrief, BRIEF_BRAKE_THRESHOLD_PA } from "@/lib/data/analysis";
+import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
+import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
+import { createSampleTrackAndBike, ingestSampleFile } from "./helpers/demo-track";
+
+interface TruthCorner { name: string; brakeOnsetDistanceM: number | null }
+interface TruthLap { number: number; kind: string; corners: TruthCorner[] }
+const truth = JSON.parse(fs.readFileSync(path.resolve(__dirname, "../../sample-logs/files/three-laps-20hz.truth.json"), "utf8")) as {
+  laps: TruthLap[];
+  brakeOnsetThresholdBar: number;
+};
+
+let team: TestTeam;
+let up: UploadHarness;
+let sessionId: number;
+
+beforeAll(async () => {
+  initModels();
+  team = await createTeamWithRoles("Analysis team");
+  up = await startUploadHarness();
+  const { track, bike } = await createSampleTrackAndBike(team.teamId);
+  sessionId = await ingestSampleFile(up, team.members.engineer.cookie, team.teamId, "three-laps-20hz.csv", { trackId: track.id, bikeId: bike.id });
+}, 240_000);
+afterAll(async () => {
+  await up?.close();
+});
+
+describe("Rider brief on three-laps-20hz.csv", () => {
+  it("uses the same 2 bar onset as the truth file", () => {
+    expect(BRIEF_BRAKE_THRESHOLD_PA).toBe(truth.brakeOnsetThresholdBar * 1e5);
+  });
+
+  it("braking differences against the best lap agree with the truth's per-lap brake onsets within 2 m", async () => {
+    const first = await riderBrief(getSequelize(), sessionId);
+    expect(first.available).toBe(true);
+    const flying = first.laps.filter((l) => l.flying).map((l) => l.number);
+    expect(flying.length).toBe(3);
+    const best = first.bestLap!;
+    // Lap numbers: ours count the out-lap as lap 1, the truth file as lap 0.
+    const offset = first.laps[0].number - truth.laps[0].number;
+    const truthLap = (n: number) => truth.laps.find((l) => l.number === n - offset)!;
+    let checked = 0;
+    for (const lap of flying.filter((n) => n !== best)) {
+      const brief = await riderBrief(getSequelize(), sessionId, { lap });
+      expect(brief.lap).toBe(lap);
+      for (const c of brief.corners) {
+        const tb = truthLap(best).corners.find((x) => x.name === c.name);
+        const tl = truthLap(lap).corners.find((x) => x.name === c.name);
+        if (!tb?.brakeOnsetDistanceM || !tl?.brakeOnsetDistanceM || c.earlierM === null) continue;
+        const truthEarlier = tb.brakeOnsetDistanceM - tl.brakeOnsetDistanceM;
+        expect(Math.abs(c.earlierM - truthEarlier), `${c.name}, lap ${lap} vs best lap ${best}`).toBeLessThanOrEqual(2);
+        expect(c.text).toMatch(new RegExp(`^${c.name}: you braked (\\d+ m (earlier|later) than|at about the same point as) on your best lap\\.$`));
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThanOrEqual(10);
+  });
+
+  it("gives peak pressure, minimum speed and a place on the outline for each corner", async () => {
+    const brief = await riderBrief(getSequelize(), sessionId);
+    expect(brief.outline!.points.length).toBeGreaterThan(100);
+    const t1 = brief.corners.find((c) => c.name === "Turn 1")!;
+    expect(t1.peakBar!).toBeGreaterThan(5);
+    // Turn 6 is the hairpin, ~55 km/h at the apex (sample-logs/README.md).
+    const hairpin = brief.corners.find((c) => c.name === "Turn 6")!;
+    expect(hairpin.minSpeedKmh!).toBeGreaterThan(40);
+    expect(hairpin.minSpeedKmh!).toBeLessThan(70);
+    for (const c of brief.corners) expect(c.at).not.toBeNull();
+  });
+});
+
+describe("Drive slip", () => {
+  it("peaks on corner exits sit in the generator's 5–12 % spec, with the convention's zero found on straights", async () => {
+    const s = await slipAnalysis(getSequelize(), sessionId);
+    expect(s.available).toBe(true);
+    expect(s.zero.applied).toBe(true);
+    // Rolling circumferences 1960/1850 mm are both the logger's, so the straight-line ratio is ~1 (+1–2 % drive slip).
+    expect(s.zero.ratio).toBeGreaterThan(0.99);
+    expect(s.zero.ratio).toBeLessThan(1.03);
+    const peaks = s.exits.flatMap((l) => l.exits.map((e) => e.peakSlip)).filter(Number.isFinite);
+    expect(peaks.length).toBeGreaterThanOrEqual(20);
+    const max = Math.max(...peaks);
+    expect(max).toBeGreaterThanOrEqual(0.05);
+    expect(max).toBeLessThanOrEqual(0.12 + 0.01);
+    const sorted = [...peaks].sort((a, b) => a - b);
+    const median = sorted[sorted.length >> 1];
+    expect(median).toBeGreaterThan(0.03);
+    expect(s.trace!.distanceM.length).toBeGreaterThan(1000);
+    expect(s.scatter.slip.length).toBeGreaterThan(500);
+  });
+
+  it("spin events above the 8 % default target carry their lap and corner", async () => {
+    const s = await slipAnalysis(getSequelize(), sessionId);
+    expect(s.targetSlip).toBe(0.08);
+    expect(s.targetSource).toBe("default");
+    for (const e of s.spins) {
+      expect(e.peakSlip).toBeGreaterThan(0.08);
+      expect(e.durationS).toBeGreaterThan(0);
+    }
+    const onLaps = s.spins.filter((e) => e.lap !== null);
+    expect(onLaps.every((e) => e.corner !== null)).toBe(true);
+  });
+
+  it("the lean correction uses the bike's crown radius and only lowers the slip on leaned exits", async () => {
+    const plain = await slipAnalysis(getSequelize(), sessionId);
+    const lean = await slipAnalysis(getSequelize(), sessionId, { lean: true });
+    expect(lean.lean).toEqual({ possible: true, applied: true, crownRadiusMm: 95 });
+    const a = plain.exits.flatMap((l) => l.exits.map((e) => e.meanSlip));
+    const b = lean.exits.flatMap((l) => l.exits.map((e) => e.meanSlip));
+    expect(b.length).toBe(a.length);
+    // r_eff < r0 at lean scales the rear speed down, so the corrected slip is never higher.
+    for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i])) expect(b[i]).toBeLessThanOrEqual(a[i] + 1e-6);
+  });
+});
+
+describe("Suspension use", () => {
+  it("fork and shock: histograms sum to 100 %, sag near the generator's ~30 / ~20 mm, no bottoming", async () => {
+    const s = await suspensionAnalysis(getSequelize(), sessionId);
+    for (const side of [s.fork!, s.shock!]) {
+      expect(side.position.timePct.reduce((x, y) => x + y, 0)).toBeCloseTo(100, 6);
+      expect(side.velocity.timePct.reduce((x, y) => x + y, 0)).toBeCloseTo(100, 6);
+      const q = side.split;
+      expect(q.compressionLowPct + q.compressionHighPct + q.reboundLowPct + q.reboundHighPct).toBeCloseTo(100, 6);
+      expect(side.maxTravelMm!).toBeLessThanOrEqual(side.strokeMm);
+    }
+    expect(s.fork!.strokeMm).toBe(120);
+    expect(s.shock!.strokeMm).toBe(65);
+    expect(s.fork!.sagMm.rolling!).toBeGreaterThan(15);
+    expect(s.fork!.sagMm.rolling!).toBeLessThan(45);
+    expect(s.shock!.sagMm.rolling!).toBeGreaterThan(10);
+    expect(s.shock!.sagMm.rolling!).toBeLessThan(30);
+    expect(s.boundaryMs).toBe(0.1);
+  });
+
+  it("a lap and the Savitzky–Golay window are applied (velocity histogram changes, positions do not)", async () => {
+    const lap = (await riderBrief(getSequelize(), sessionId)).bestLap!;
+    const narrow = await suspensionAnalysis(getSequelize(), sessionId, { lap, window: 5 });
+    const wide = await suspensionAnalysis(getSequelize(), sessionId, { lap, window: 21 });
+    expect(narrow.scope).toBe(`Lap ${lap}`);
+    expect(wide.window).toBe(21);
+    expect(wide.fork!.position.timePct).toEqual(narrow.fork!.position.timePct);
+    expect(wide.fork!.velocity.timePct).not.toEqual(narrow.fork!.velocity.timePct);
+    const session = await suspensionAnalysis(getSequelize(), sessionId, { window: 5 });
+    expect(session.scope).toBe("Whole session");
+    expect(session.fork!.position.timePct).not.toEqual(narrow.fork!.position.timePct);
+  });
+});
+
+describe("Gears", () => {
+  it("time in gear covers the session and upshifts are clutchless under throttle", async () => {
+    const g = await gearAnalysis(getSequelize(), sessionId);
+    expect(g.source).toBe("logged");
+    expect(g.rows.reduce((x, r) => x + r.pct, 0)).toBeCloseTo(100, 6);
+    expect(g.rows.filter((r) => r.gear >= 1 && r.timeS > 0).length).toBeGreaterThanOrEqual(5);
+    expect(g.upshifts).toBeGreaterThan(20);
+    expect(g.clutchlessUpshifts).toBeGreaterThan(0);
+  });
+});

@@ -1,0 +1,305 @@
+/**
+ * Laps and Compare, read side, through the route handlers against the real MariaDB: a sample log
+ * (sample-logs/files/three-laps-20hz.csv) uploaded and ingested for real on the invented circuit,
+ * then the series API, the lap-table CSV and the lap GPX as each role sees them.
+ */
+import { describe, it, expect, beforeAll, afterAll } from "vitest";
+import fs from "node:fs";
+import path from "node:path";
+import { XMLValidator, XMLParser } from "fast-xml-parser";
+import Papa from "papaparse";
+import { getSequelize } from "@/models/db";
+import { initModels, Lap, RideSession, Rider } from "@/models";
+import { claimJob, finishJob, failJob } from "@/lib/data/jobs";
+import { confirmMapping } from "@/lib/data/imports";
+import { ensureTrack } from "@/lib/data/tracks";
+import { listChannels, readChannels, readChannelRange, CHUNK_SAMPLES } from "@/lib/data/samples";
+import { runIngestJob } from "@/workers/ingest/run-ingest-job";
+import type { Mapping } from "@/lib/ingest/mapping";
+import { decodeSeries } from "@/lib/series/binary";
+import type { LapSeriesMeta } from "@/lib/series/lap-series-meta";
+import { CIRCUIT } from "@/sample-logs/circuit";
+import { createTeamWithRoles, req, params, type TestTeam } from "./helpers/teams";
+import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
+import * as seriesRoute from "@/app/api/series/route";
+import * as csvRoute from "@/app/api/sessions/[id]/laps.csv/route";
+import * as gpxRoute from "@/app/api/sessions/[id]/laps/[lap]/gpx/route";
+import * as lapsRoute from "@/app/api/sessions/[id]/laps/route";
+
+const FILE = path.resolve("sample-logs/files/three-laps-20hz.csv");
+const TRUTH = JSON.parse(fs.readFileSync(path.resolve("sample-logs/files/three-laps-20hz.truth.json"), "utf8")) as {
+  laps: { number: number; kind: string; startS: number; endS: number; lapTimeMs: number; sectorTimesMs: number[] | null; distanceM: number; topSpeedMs: number; flags: { outLap: boolean; inLap: boolean } }[];
+};
+
+let a: TestTeam;
+let b: TestTeam;
+let up: UploadHarness;
+let riderSession: number; // ridden by A's rider user
+let otherSession: number; // another rider's, not shared
+let lapsFromTruth = false;
+let flying: { number: number; lapTimeMs: number; startTimeS: number; endTimeS: number }[] = [];
+
+async function ingest(cookie: string, title: string): Promise<number> {
+  const { sessionId } = await up.upload(new File([fs.readFileSync(FILE)], "three-laps-20hz.csv", { type: "text/csv" }), cookie);
+  const s = await RideSession.findByPk(sessionId);
+  if (s!.status === "mapping") await confirmMapping(getSequelize(), a.teamId, sessionId, s!.mapping as Mapping, "Demo logger");
+  const job = await claimJob(getSequelize(), "series-test");
+  const r = await runIngestJob(getSequelize(), job!.sessionId!);
+  if (r === "ready") await finishJob(getSequelize(), job!.id);
+  else await failJob(getSequelize(), job!.id, "bad input");
+  expect(r).toBe("ready");
+  await RideSession.update({ title }, { where: { id: sessionId } });
+  return sessionId;
+}
+
+/** If the ingest analysis stored no laps (no track matched), the ground truth's laps stand in. */
+async function ensureLaps(sessionId: number) {
+  if ((await Lap.count({ where: { sessionId } })) > 0) return;
+  lapsFromTruth = true;
+  await Lap.bulkCreate(
+    TRUTH.laps.map((l) => ({
+      sessionId, number: l.number + 1, startTimeS: l.startS, endTimeS: l.endS, lapTimeMs: Math.round(l.lapTimeMs), distanceM: l.distanceM,
+      isOutLap: l.flags.outLap, isInLap: l.flags.inLap, isInvalid: false, pitPass: false,
+      sectorTimesMs: l.sectorTimesMs ? l.sectorTimesMs.map(Math.round) : [], topSpeedMs: l.topSpeedMs, stats: { complete: l.kind === "flying" },
+    })),
+  );
+}
+
+const seriesUrl = (laps: string, roles: string, x = "distance", width = 1200) => `/api/series?laps=${laps}&roles=${roles}&x=${x}&width=${width}`;
+async function series(cookie: string | undefined, laps: string, roles: string, x = "distance", width = 1200) {
+  const res = await seriesRoute.GET(req(seriesUrl(laps, roles, x, width), cookie), params({}));
+  return res;
+}
+async function decoded(res: Response) {
+  expect(res.status).toBe(200);
+  expect(res.headers.get("content-type")).toBe("application/octet-stream");
+  return decodeSeries<LapSeriesMeta>(await res.arrayBuffer());
+}
+
+beforeAll(async () => {
+  initModels();
+  [a, b] = await Promise.all([createTeamWithRoles("Series team A"), createTeamWithRoles("Series team B")]);
+  await ensureTrack(getSequelize(), a.teamId, {
+    name: CIRCUIT.name,
+    gates: {
+      startFinish: CIRCUIT.gates.find((g) => g.name === "start_finish")!,
+      sectors: CIRCUIT.gates.filter((g) => g.name.startsWith("sector_")),
+      pitEntry: CIRCUIT.gates.find((g) => g.name === "pit_entry") ?? null,
+      pitExit: CIRCUIT.gates.find((g) => g.name === "pit_exit") ?? null,
+    },
+    corners: CIRCUIT.corners.map((c) => ({ name: c.name, distanceM: c.apexDistanceM })),
+    outline: CIRCUIT.centreline.map((p) => [p.lat, p.lon] as [number, number]),
+    lengthM: CIRCUIT.lengthM,
+    pitSpeedLimitKmh: CIRCUIT.pitLane.speedLimitKmh,
+  });
+  up = await startUploadHarness();
+  riderSession = await ingest(a.members.engineer.cookie, "FP1 own");
+  otherSession = await ingest(a.members.engineer.cookie, "FP1 other");
+  const mine = await Rider.create({ teamId: a.teamId, name: "Rider user", raceNumber: "27", userId: a.members.rider.userId });
+  const other = await Rider.create({ teamId: a.teamId, name: "Other rider", raceNumber: "64", userId: null });
+  await RideSession.update({ riderId: mine.id }, { where: { id: riderSession } });
+  await RideSession.update({ riderId: other.id, sharedWithRiders: false }, { where: { id: otherSession } });
+  await ensureLaps(riderSession);
+  await ensureLaps(otherSession);
+  const laps = await Lap.findAll({ where: { sessionId: riderSession }, order: [["number", "ASC"]] });
+  flying = laps.filter((l) => !l.isOutLap && !l.isInLap).map((l) => ({ number: l.number, lapTimeMs: l.lapTimeMs, startTimeS: l.startTimeS, endTimeS: l.endTimeS }));
+  console.log(`[series-api] laps ${lapsFromTruth ? "inserted from the ground truth (ingest stored none)" : "stored by the ingest analysis"}: ${laps.length}`);
+}, 300_000);
+afterAll(async () => {
+  await up?.close();
+});
+
+describe("readChannelRange", () => {
+  it("returns exactly the samples of the range, across chunk boundaries, as readChannels does", async () => {
+    const channels = (await listChannels(getSequelize(), riderSession)).filter((c) => ["time", "speed_front", "gps_lat"].includes(c.role));
+    const whole = await readChannels(getSequelize(), channels);
+    for (const [s, e] of [[0, 10], [CHUNK_SAMPLES - 3, CHUNK_SAMPLES + 5], [12_345, 31_000], [48_000, 10_000_000]]) {
+      const part = await readChannelRange(getSequelize(), channels, s, e);
+      for (const c of channels) {
+        const w = whole.get(c.id)!;
+        expect(Array.from(part.get(c.id)!)).toEqual(Array.from(w.subarray(s, Math.min(e, w.length))));
+      }
+    }
+  });
+});
+
+describe("the lap list", () => {
+  it("has the out-lap, three flying laps and the in-lap, matching the ground truth within 20 ms", async () => {
+    const res = await lapsRoute.GET(req(`/api/sessions/${riderSession}/laps`, a.members.viewer.cookie), params({ id: String(riderSession) }));
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    expect(body.laps.length).toBe(TRUTH.laps.length);
+    const truthFlying = TRUTH.laps.filter((l) => l.kind === "flying");
+    expect(flying.length).toBe(truthFlying.length);
+    // GPS at 20 Hz and the interpolated gate crossing: the generator's model path is the reference.
+    flying.forEach((l, i) => expect(Math.abs(l.lapTimeMs - truthFlying[i].lapTimeMs)).toBeLessThan(20));
+  });
+});
+
+describe("GET /api/series: who gets what", () => {
+  const pair = () => `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`;
+
+  it("refuses a request without a session (401)", async () => {
+    expect((await series(undefined, pair(), "speed_front")).status).toBe(401);
+  });
+
+  it.each(["owner", "engineer", "viewer", "rider"] as const)("%s reads two laps of the rider's session", async (role) => {
+    const { meta, arrays } = await decoded(await series(a.members[role].cookie, pair(), "speed_front,throttle"));
+    expect(meta.laps.map((l) => l.lap)).toEqual([flying[0].number, flying[1].number]);
+    expect(meta.panes.map((p) => p.role)).toEqual(["speed_front", "throttle"]);
+    for (const p of meta.panes) for (const s of p.series) expect(arrays[s!].length).toBe(arrays[p.x].length);
+  });
+
+  it("laps from two sessions of the team compare together (owner)", async () => {
+    const { meta } = await decoded(await series(a.members.owner.cookie, `${riderSession}:${flying[0].number},${otherSession}:${flying[2].number}`, "speed_front"));
+    expect(meta.laps.map((l) => l.sessionTitle)).toEqual(["FP1 own", "FP1 other"]);
+  });
+
+  it("a rider gets 404 for another rider's unshared session, and sees it once shared", async () => {
+    const mixed = `${riderSession}:${flying[0].number},${otherSession}:${flying[0].number}`;
+    expect((await series(a.members.rider.cookie, mixed, "speed_front")).status).toBe(404);
+    await RideSession.update({ sharedWithRiders: true }, { where: { id: otherSession } });
+    expect((await series(a.members.rider.cookie, mixed, "speed_front")).status).toBe(200);
+    await RideSession.update({ sharedWithRiders: false }, { where: { id: otherSession } });
+  });
+
+  it.each(["owner", "engineer", "rider", "viewer"] as const)("%s of another team gets 404, with nothing of the data", async (role) => {
+    const res = await series(b.members[role].cookie, pair(), "speed_front");
+    expect(res.status).toBe(404);
+    expect(JSON.stringify(await res.json())).not.toContain("FP1");
+  });
+
+  it("a lap that does not exist is a 404; a malformed request is a 422", async () => {
+    expect((await series(a.members.owner.cookie, `${riderSession}:999`, "speed_front")).status).toBe(404);
+    expect((await series(a.members.owner.cookie, `x:1`, "speed_front")).status).toBe(422);
+    expect((await series(a.members.owner.cookie, pair(), "not_a_role")).status).toBe(422);
+    expect((await series(a.members.owner.cookie, pair(), "speed_front", "sideways")).status).toBe(422);
+  });
+});
+
+describe("series values", () => {
+  it("the running gap at the line equals lapTime(B) − lapTime(A) within 1 ms", async () => {
+    const laps = `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number},${riderSession}:${flying[2].number}`;
+    const { meta, arrays } = await decoded(await series(a.members.engineer.cookie, laps, "speed_front", "distance", 8000));
+    expect(meta.gap).not.toBeNull();
+    expect(meta.gap!.series[0]).toBeNull();
+    const x = arrays[meta.gap!.x];
+    // The grid runs 0 … reference lap length at 1 m, ending exactly on the line.
+    expect(x[0]).toBe(0);
+    expect(x[1]).toBe(1);
+    expect(x[x.length - 1]).toBeCloseTo(meta.laps[0].lengthM, 6);
+    for (const i of [1, 2]) {
+      const g = arrays[meta.gap!.series[i]!];
+      // Running gap = time(B) − time(A) at equal distance (PRODUCT.md §5); at the full lap both
+      // have covered it, so by definition it is the lap-time difference. Float32 storage: µs.
+      expect(Math.abs(g[g.length - 1] * 1000 - (flying[i].lapTimeMs - flying[0].lapTimeMs))).toBeLessThan(1);
+      expect(g[0]).toBeCloseTo(0, 6);
+    }
+  });
+
+  it("by time, each lap's values are the stored samples interpolated at lap-relative times", async () => {
+    const lap = flying[1];
+    const { meta, arrays } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${lap.number}`, "speed_front,engine_rpm", "time", 10_000));
+    const channels = await listChannels(getSequelize(), riderSession);
+    const whole = await readChannels(getSequelize(), channels);
+    const t = whole.get(channels.find((c) => c.role === "time")!.id)!;
+    const v = whole.get(channels.find((c) => c.role === "speed_front")!.id)!;
+    const pane = meta.panes.find((p) => p.role === "speed_front")!;
+    expect(pane.decimated).toBe(false);
+    const xs = arrays[pane.x];
+    const ys = arrays[pane.series[0]!];
+    expect(xs[xs.length - 1]).toBeLessThanOrEqual(lap.lapTimeMs / 1000 + 1e-6);
+    for (const k of [0, 1, 777, 4000, xs.length - 2]) {
+      const abs = lap.startTimeS + xs[k];
+      // Independent linear interpolation between the two stored samples around `abs`.
+      let i = 0;
+      while (t[i + 1] < abs) i++;
+      const expected = v[i] + ((v[i + 1] - v[i]) * (abs - t[i])) / (t[i + 1] - t[i]);
+      expect(ys[k]).toBeCloseTo(expected, 3);
+    }
+  });
+
+  it("lap length comes from GPS-rescaled wheel distance: within 1 % of the model path length", async () => {
+    const { meta } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${flying[0].number}`, "speed_front"));
+    const truth = TRUTH.laps.filter((l) => l.kind === "flying")[0];
+    expect(Math.abs(meta.laps[0].lengthM - truth.distanceM) / truth.distanceM).toBeLessThan(0.01);
+    expect(meta.track).not.toBeNull();
+  });
+
+  it("decimation to a narrow chart keeps every pixel column's min and max of each lap", async () => {
+    const laps = `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`;
+    const full = await decoded(await series(a.members.engineer.cookie, laps, "engine_rpm", "distance", 10_000));
+    const width = 300;
+    const small = await decoded(await series(a.members.engineer.cookie, laps, "engine_rpm", "distance", width));
+    const fp = full.meta.panes[0];
+    const sp = small.meta.panes[0];
+    expect(fp.decimated).toBe(false);
+    expect(sp.decimated).toBe(true);
+    const fx = full.arrays[fp.x];
+    const sx = small.arrays[sp.x];
+    expect(sx.length).toBeLessThan(fx.length);
+    expect(sx.length).toBeLessThanOrEqual(2 * (3 * width + 2));
+    const x0 = fx[0];
+    const perX = width / (fx[fx.length - 1] - x0);
+    const col = (xv: number) => Math.min(width - 1, Math.floor((xv - x0) * perX));
+    for (let s = 0; s < 2; s++) {
+      const fy = full.arrays[fp.series[s]!];
+      const sy = small.arrays[sp.series[s]!];
+      const fMin = new Float64Array(width).fill(Infinity), fMax = new Float64Array(width).fill(-Infinity);
+      const sMin = new Float64Array(width).fill(Infinity), sMax = new Float64Array(width).fill(-Infinity);
+      for (let i = 0; i < fx.length; i++) if (Number.isFinite(fy[i])) { const c = col(fx[i]); fMin[c] = Math.min(fMin[c], fy[i]); fMax[c] = Math.max(fMax[c], fy[i]); }
+      for (let i = 0; i < sx.length; i++) if (Number.isFinite(sy[i])) { const c = col(sx[i]); sMin[c] = Math.min(sMin[c], sy[i]); sMax[c] = Math.max(sMax[c], sy[i]); }
+      expect(Array.from(sMin)).toEqual(Array.from(fMin));
+      expect(Array.from(sMax)).toEqual(Array.from(fMax));
+    }
+  });
+});
+
+describe("exports", () => {
+  it("the lap table CSV has one row per lap and neutralises a formula-looking session title", async () => {
+    await RideSession.update({ title: '=HYPERLINK("http://example.com","x")' }, { where: { id: riderSession } });
+    const res = await csvRoute.GET(req(`/api/sessions/${riderSession}/laps.csv`, a.members.rider.cookie), params({ id: String(riderSession) }));
+    await RideSession.update({ title: "FP1 own" }, { where: { id: riderSession } });
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
+    expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="[A-Za-z0-9._-]+\.csv"/);
+    const parsed = Papa.parse<string[]>(await res.text(), { skipEmptyLines: true });
+    expect(parsed.data.length).toBe(TRUTH.laps.length + 1);
+    expect(parsed.data[0][0]).toBe("Session");
+    // OWASP CSV injection guidance: a leading quote makes the spreadsheet read it as text.
+    for (const row of parsed.data.slice(1)) expect(row[0]).toBe(`'=HYPERLINK("http://example.com","x")`);
+    expect(parsed.data[2][2]).toMatch(/^1:2\d\.\d{3}$/);
+  });
+
+  it("the CSV of another rider's unshared session is a 404 for a rider, and of another team for everyone", async () => {
+    expect((await csvRoute.GET(req(`/api/sessions/${otherSession}/laps.csv`, a.members.rider.cookie), params({ id: String(otherSession) }))).status).toBe(404);
+    expect((await csvRoute.GET(req(`/api/sessions/${riderSession}/laps.csv`, b.members.owner.cookie), params({ id: String(riderSession) }))).status).toBe(404);
+    expect((await csvRoute.GET(req(`/api/sessions/${riderSession}/laps.csv`), params({ id: String(riderSession) }))).status).toBe(401);
+  });
+
+  it("a lap as GPX validates as XML and holds the lap's 20 Hz fixes, in time order, inside the lap", async () => {
+    const lap = flying[0];
+    const res = await gpxRoute.GET(req(`/api/sessions/${riderSession}/laps/${lap.number}/gpx`, a.members.viewer.cookie), params({ id: String(riderSession), lap: String(lap.number) }));
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/^application\/gpx\+xml/);
+    const text = await res.text();
+    expect(XMLValidator.validate(text)).toBe(true);
+    const doc = new XMLParser({ ignoreAttributes: false }).parse(text);
+    expect(doc.gpx["@_version"]).toBe("1.1");
+    const pts = doc.gpx.trk.trkseg.trkpt as { "@_lat": string; time: string }[];
+    const expected = ((lap.endTimeS - lap.startTimeS) * 20);
+    expect(Math.abs(pts.length - expected)).toBeLessThanOrEqual(2);
+    const times = pts.map((p) => Date.parse(p.time));
+    for (let i = 1; i < times.length; i++) expect(times[i]).toBeGreaterThan(times[i - 1]);
+    // Session time 0 is the log's start, or the upload time when the log names none.
+    const row = (await RideSession.findByPk(riderSession))!;
+    const started = (row.startedAt ?? row.createdAt).getTime();
+    expect(times[0]).toBeGreaterThanOrEqual(started + lap.startTimeS * 1000 - 1);
+    expect(times[times.length - 1]).toBeLessThanOrEqual(started + lap.endTimeS * 1000 + 1);
+  });
+
+  it("GPX of an unknown lap is a 404; of another team's session a 404", async () => {
+    expect((await gpxRoute.GET(req(`/api/sessions/${riderSession}/laps/999/gpx`, a.members.owner.cookie), params({ id: String(riderSession), lap: "999" }))).status).toBe(404);
+    expect((await gpxRoute.GET(req(`/api/sessions/${riderSession}/laps/2/gpx`, b.members.engineer.cookie), params({ id: String(riderSession), lap: "2" }))).status).toBe(404);
+  });
+});

@@ -5,7 +5,7 @@
  * own progress bar. One file → on to its session (mapping screen if its columns need mapping);
  * several → a link per session.
  */
-import { useCallback, useRef, useState } from "react";
+import { useCallback, useEffect, useRef, useState } from "react";
 import { useRouter } from "next/navigation";
 import Link from "next/link";
 import { useDropzone } from "@uploadthing/react";
@@ -24,7 +24,7 @@ interface Item {
 }
 
 function formatSize(bytes: number): string {
-  if (bytes >= 1024 * 1024) return `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
+  if (bytes >= 1024 * 1024) return `${(bytes / (1024 * 1024)).toFixed(1).replace(/\.0$/, "")} MB`;
   if (bytes >= 1024) return `${(bytes / 1024).toFixed(0)} kB`;
   return `${bytes} bytes`;
 }
@@ -54,6 +54,9 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
   const router = useRouter();
   const [items, setItems] = useState<Item[]>([]);
   const [busy, setBusy] = useState(false);
+  // Files dropped before hydration would be lost: say when the zone listens (tests wait for it too).
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
   const current = useRef<string | null>(null);
   const lastError = useRef<{ code?: string; message?: string } | null>(null);
 
@@ -119,6 +122,7 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
         aria-label="Drop logger exports here, or choose files"
         aria-disabled={busy}
         data-testid="dropzone"
+        data-ready={ready ? "true" : "false"}
         className={`flex cursor-pointer flex-col items-center justify-center gap-2 rounded-lg border-2 border-dashed px-6 py-12 text-center transition-colors focus:outline-none focus-visible:ring-2 focus-visible:ring-signal-500 ${
           isDragActive ? "border-signal-500 bg-signal-500/5" : "border-ink-600 bg-ink-950 hover:border-ink-400"
         } ${busy ? "cursor-wait opacity-70" : ""}`}

@@ -49,7 +49,13 @@ async function recordUploadProgress() {
 }
 
 /** Drop a file on the drop zone and wait until the app has moved on to its session. */
+/** The drop zone listens once React has hydrated it. */
+async function zoneReady() {
+  await page.locator('[data-testid="dropzone"][data-ready="true"]').waitFor({ timeout: 30_000 });
+}
+
 async function dropAndFollow(file: string): Promise<{ sessionId: number; mapping: boolean }> {
+  await zoneReady();
   await page.getByTestId("dropzone-input").setInputFiles(file);
   await page.waitForURL(/\/sessions\/\d+(\/import)?$/, { timeout: 60_000 });
   const m = /\/sessions\/(\d+)(\/import)?$/.exec(page.url())!;
@@ -106,6 +112,7 @@ describe("upload → mapping → ready", () => {
   it("drops the three-lap export, sees its progress, maps the columns and gets the channels in km/h", async () => {
     await recordUploadProgress();
     await page.reload();
+    await zoneReady();
     const drop = page.getByTestId("dropzone-input").setInputFiles(THREE_LAPS);
     const bar = page.getByRole("progressbar", { name: "Upload of three-laps-20hz.csv" });
     const landed = page.waitForURL(/\/sessions\/\d+(\/import)?$/, { timeout: 60_000 });
@@ -180,6 +187,7 @@ describe("upload → mapping → ready", () => {
 
   it("a file that is not a log is refused with a specific message", async () => {
     await page.goto(`${appUrl()}/upload`);
+    await zoneReady();
     await page.getByTestId("dropzone-input").setInputFiles({ name: "paddock.jpg", mimeType: "image/jpeg", buffer: Buffer.from([0xff, 0xd8, 0xff, 0xe0, 1, 2, 3, 4]) });
     const item = page.locator('[data-testid="upload-item"][data-state="error"]');
     await item.waitFor({ timeout: 30_000 }).catch(async (e) => {

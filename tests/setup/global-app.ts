@@ -33,7 +33,10 @@ export default async function setup(project: TestProject) {
   const dataDir = path.join(root, ".data", `e2e-${process.pid}`);
   const dbName = `lapbench_e2e_${process.pid}`;
   dropDatabase(dbName);
+  // The browser tests sign in many times a minute from 127.0.0.1; the limit itself is tested in
+  // tests/integration/auth-flow.test.ts.
   stack = await startStack({
+    extraEnv: { LAPBENCH_SIGNIN_RATE_MAX: "10000" },
     dbName,
     appPort: Number(process.env.LAPBENCH_E2E_PORT ?? 3210),
     mailPort: Number(process.env.LAPBENCH_E2E_MAIL_PORT ?? 2626),

@@ -26,6 +26,8 @@ export interface StackOptions {
   seed: boolean;
   worker: boolean;
   quiet?: boolean;
+  /** Added to every child's environment (e.g. test-only settings). */
+  extraEnv?: Record<string, string>;
 }
 
 export interface RunningStack {
@@ -58,6 +60,7 @@ export function stackEnv(o: StackOptions): NodeJS.ProcessEnv {
     UPLOADTHING_API_URL: `http://127.0.0.1:${o.uploadPort}`,
     UPLOADTHING_CALLBACK_URL: `${appUrl}/api/uploadthing`,
     UPLOADTHING_IS_DEV: "false",
+    ...o.extraEnv,
   };
 }
 

@@ -13,7 +13,6 @@ import { ROLE_LABEL, ROLE_SI_UNIT, type ChannelRole } from "@/lib/channels/roles
 import { distanceChannel } from "@/lib/laps/distance-channel";
 import type { SeriesLike } from "@/lib/laps/types";
 import { resampleOnDistance } from "@/lib/compare/resample-on-distance";
-import { runningGap } from "@/lib/compare/running-gap";
 import { decimateMinMax, DECIMATE_RATIO } from "@/lib/compare/decimate-min-max";
 import { toLocalMetres } from "@/lib/geo/to-local-metres";
 import type { SeriesArray } from "@/lib/series/binary";
@@ -112,31 +111,59 @@ async function lapTrace(sequelize: Sequelize, channels: ChannelInfo[], lap: LapR
 }
 
 /**
- * Put one lap's columns on the common grid. For distance: resampleOnDistance at 1 m, then the
+ * resampleOnDistance's `values` column only, written into `out` (pre-filled with NaN) for its
+ * first min(out.length, grid points) entries. The loop is that function's, step for step, so the
+ * numbers are the same; it skips the time and distance columns and the intermediate arrays
+ * which Compare would otherwise build and drop for every channel of every lap. Returns the number
+ * of grid points the lap reaches.
+ */
+function resampleValuesInto(xs: Float64Array, values: ArrayLike<number>, step: number, out: Float64Array): number {
+  const n = xs.length; // values has one entry per x (a lap trace's columns)
+  const dEnd = n > 0 ? xs[n - 1] : NaN;
+  const m = n > 0 && dEnd >= 0 ? Math.floor(dEnd / step + 1e-9) + 1 : 0;
+  const upTo = Math.min(m, out.length);
+  let k = 0;
+  let lastFinite = -1;
+  let nextFinite = -1;
+  for (let g = 0; g < upTo; g++) {
+    const d = g * step;
+    while (k < n && xs[k] < d) {
+      if (Number.isFinite(values[k])) lastFinite = k;
+      k++;
+    }
+    if (k >= n) continue; // stays NaN
+    if (nextFinite < k) {
+      nextFinite = k;
+      while (nextFinite < n && !Number.isFinite(values[nextFinite])) nextFinite++;
+    }
+    if (nextFinite >= n) continue;
+    if (xs[nextFinite] === d) out[g] = values[nextFinite];
+    else if (lastFinite >= 0) {
+      const da = xs[lastFinite];
+      const db = xs[nextFinite];
+      const va = values[lastFinite];
+      out[g] = db === da ? va : va + ((values[nextFinite] - va) * (d - da)) / (db - da);
+    }
+  }
+  return m;
+}
+
+/**
+ * Put one lap's channel on the common grid. For distance: resampleOnDistance at 1 m, then the
  * exact end of the lap (the reference length) appended so the last point is the line itself.
  * For time: the same interpolation with time as its own "distance" (strictly ascending, so the
  * function's NaN-aware linear interpolation applies unchanged), NaN past the lap's end.
  */
-function onGrid(x: SeriesX, trace: LapTrace, dScaled: Float64Array, values: Float64Array | null, grid: Float64Array, step: number): { t: Float64Array; v: Float64Array } {
+function onGrid(x: SeriesX, trace: LapTrace, dScaled: Float64Array, values: Float64Array, grid: Float64Array, step: number): Float64Array {
   const m = grid.length;
-  const t = new Float64Array(m).fill(NaN);
   const v = new Float64Array(m).fill(NaN);
   if (x === "distance") {
-    const r = resampleOnDistance(trace.tRel, dScaled, values, step);
-    const k = Math.min(r.distanceM.length, m);
-    t.set(r.timeS.subarray(0, k));
-    v.set(r.values.subarray(0, k));
-    if (grid[m - 1] !== (m - 1) * step || k < m) {
-      t[m - 1] = trace.tRel[trace.tRel.length - 1];
-      v[m - 1] = values ? values[values.length - 1] : NaN;
-    }
+    const k = Math.min(resampleValuesInto(dScaled, values, step, v), m);
+    if (grid[m - 1] !== (m - 1) * step || k < m) v[m - 1] = values[values.length - 1];
   } else {
-    const r = resampleOnDistance(trace.tRel, trace.tRel, values, step);
-    const k = Math.min(r.distanceM.length, m);
-    t.set(r.distanceM.subarray(0, k));
-    v.set(r.values.subarray(0, k));
+    resampleValuesInto(trace.tRel, values, step, v);
   }
-  return { t, v };
+  return v;
 }
 
 /**
@@ -147,7 +174,8 @@ function onGrid(x: SeriesX, trace: LapTrace, dScaled: Float64Array, values: Floa
 function decimateTogether(grid: Float64Array, ys: (Float64Array | null)[], width: number): { x: Float64Array; ys: (Float32Array | null)[]; decimated: boolean } {
   const present = ys.filter((y): y is Float64Array => y != null);
   if (grid.length < DECIMATE_RATIO * width || present.length === 0) {
-    return { x: grid, ys: ys.map((y) => (y ? Float32Array.from(y) : null)), decimated: false };
+    // The typed-array constructor copies with a native conversion (`from` iterates element by element).
+    return { x: grid, ys: ys.map((y) => (y ? new Float32Array(y) : null)), decimated: false };
   }
   const keep = new Uint8Array(grid.length);
   for (const y of present) {
@@ -180,7 +208,11 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
   const { laps: refs, x } = request;
   const roles = [...new Set(request.roles)];
   const width = Math.max(1, Math.floor(request.width));
-  const found = await findLaps(ctx, refs);
+  // The laps (with the visibility check) and each session's channel list in one round trip. The
+  // channel lists are used only after every lap has passed that check; an unseen session's list
+  // is dropped with the 404.
+  const sessionIds = [...new Set(refs.map((r) => r.sessionId))];
+  const [found, channelLists] = await Promise.all([findLaps(ctx, refs), Promise.all(sessionIds.map((id) => listChannels(sequelize, id)))]);
   const rows = refs.map((r) => {
     const row = found.laps.get(`${r.sessionId}:${r.lap}`);
     // Missing, another team's, or a session this rider may not see: all the same 404.
@@ -188,8 +220,7 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
     return row;
   });
 
-  const channelsBySession = new Map<number, ChannelInfo[]>();
-  for (const id of new Set(rows.map((r) => r.sessionId))) channelsBySession.set(id, await listChannels(sequelize, id));
+  const channelsBySession = new Map<number, ChannelInfo[]>(sessionIds.map((id, i) => [id, channelLists[i]]));
   const traceRoles = [...new Set<ChannelRole>([...roles, "gps_lat", "gps_lon"])];
   const traces = await Promise.all(rows.map((r) => lapTrace(sequelize, channelsBySession.get(r.sessionId)!, r, traceRoles, x === "distance")));
 
@@ -234,7 +265,7 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
     if (role === "gps_lat" || role === "gps_lon") continue; // shown as the track outline
     const perLap = traces.map((t, i) => {
       const v = t.values.get(role);
-      return v ? onGrid(x, t, scaled[i].d, v, grid, step).v : null;
+      return v ? onGrid(x, t, scaled[i].d, v, grid, step) : null;
     });
     if (perLap.every((v) => v == null)) {
       missing.push(role);
@@ -244,14 +275,22 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
     panes.push({ role, label: ROLE_LABEL[role], unit: ROLE_SI_UNIT[role], x: xIndex(dec.x), series: dec.ys.map((y) => (y ? push(y) : null)), decimated: dec.decimated });
   }
 
-  // Running gap along distance, time(B) − time(A) (lib/compare runningGap), on the common grid.
+  // Each lap's time at every metre of its scaled distance, resampled once per lap: every gap reads
+  // the reference lap's column instead of resampling the reference again for each other lap.
+  const timeAtMetre: (Float64Array | undefined)[] = [];
+  const timeOnDistance = (i: number) => (timeAtMetre[i] ??= resampleOnDistance(traces[i].tRel, scaled[i].d, null, 1).timeS);
+
+  // Running gap along distance, time(B) − time(A) on the common 1 m grid (lib/compare runningGap's
+  // definition, over the shared per-lap columns).
   let gap: LapSeriesMeta["gap"] = null;
   if (traces.length > 1 && x === "distance") {
     const gaps = traces.map((t, i) => {
       if (i === 0) return null;
-      const g = runningGap({ timeS: ref.tRel, distanceM: scaled[0].d }, { timeS: t.tRel, distanceM: scaled[i].d }, step);
+      const a = timeOnDistance(0);
+      const b = timeOnDistance(i);
       const out = new Float64Array(grid.length).fill(NaN);
-      out.set(g.gapS.subarray(0, Math.min(g.gapS.length, grid.length)));
+      const m = Math.min(a.length, b.length, grid.length);
+      for (let g = 0; g < m; g++) out[g] = b[g] - a[g];
       // At the line both laps have covered the reference length: the gap is the lap-time difference.
       out[grid.length - 1] = t.tRel[t.tRel.length - 1] - ref.tRel[ref.tRel.length - 1];
       return out;
@@ -262,14 +301,12 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
     // By time: the gap at each instant of the reference lap, i.e. at the distance it had reached.
     const gaps = traces.map((t, i) => {
       if (i === 0) return null;
-      const dGrid = new Float64Array(Math.floor(refLengthM) + 1);
-      for (let g = 0; g < dGrid.length; g++) dGrid[g] = g;
-      const a = resampleOnDistance(ref.tRel, scaled[0].d, null, 1);
-      const b = resampleOnDistance(t.tRel, scaled[i].d, null, 1);
-      const m = Math.min(a.timeS.length, b.timeS.length);
+      const a = timeOnDistance(0);
+      const b = timeOnDistance(i);
+      const m = Math.min(a.length, b.length);
       const ta = new Float64Array(m + 1);
       const gv = new Float64Array(m + 1);
-      for (let g = 0; g < m; g++) { ta[g] = a.timeS[g]; gv[g] = b.timeS[g] - a.timeS[g]; }
+      for (let g = 0; g < m; g++) { ta[g] = a[g]; gv[g] = b[g] - a[g]; }
       ta[m] = ref.tRel[ref.tRel.length - 1];
       gv[m] = t.tRel[t.tRel.length - 1] - ta[m];
       const onTime = resampleOnDistance(ta, ta, gv, step).values;
@@ -286,8 +323,8 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
   const lat = ref.values.get("gps_lat");
   const lon = ref.values.get("gps_lon");
   if (lat && lon) {
-    const la = onGrid(x, ref, scaled[0].d, lat, grid, step).v;
-    const lo = onGrid(x, ref, scaled[0].d, lon, grid, step).v;
+    const la = onGrid(x, ref, scaled[0].d, lat, grid, step);
+    const lo = onGrid(x, ref, scaled[0].d, lon, grid, step);
     let origin = -1;
     for (let i = 0; i < la.length && origin < 0; i++) if (Number.isFinite(la[i]) && Number.isFinite(lo[i])) origin = i;
     if (origin >= 0) {

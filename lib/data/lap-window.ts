@@ -11,7 +11,15 @@ import type { LapRow } from "./laps";
 export async function readLapWindow(sequelize: Sequelize, channels: ChannelInfo[], lap: LapRow, roles: readonly string[]): Promise<{ timeS: Float64Array; data: Map<string, Float32Array | Float64Array> }> {
   const time = channels.find((c) => c.role === "time");
   if (!time || time.sampleCount < 2) throw new HttpError(422, `Session ${lap.sessionId} has no samples to compare.`);
-  const wanted = channels.filter((c) => c.role !== "time" && roles.includes(c.role));
+  // The first channel of each role (the one used below): a log with two channels of one role
+  // would otherwise read blobs that are thrown away.
+  const wanted: ChannelInfo[] = [];
+  const seen = new Set<string>();
+  for (const c of channels) {
+    if (c.role === "time" || seen.has(c.role) || !roles.includes(c.role)) continue;
+    seen.add(c.role);
+    wanted.push(c);
+  }
   const t0 = time.minValue ?? 0;
   const rate = time.rateHz ?? 1;
   const margin = Math.ceil(rate) + 2; // one second of samples either side
@@ -24,7 +32,7 @@ export async function readLapWindow(sequelize: Sequelize, channels: ChannelInfo[
     const coversEnd = end >= time.sampleCount || ts[ts.length - 1] >= lap.endTimeS;
     if ((coversStart && coversEnd) || attempt >= 3) {
       const data = new Map<string, Float32Array | Float64Array>();
-      for (const c of wanted) if (!data.has(c.role)) data.set(c.role, read.get(c.id)!);
+      for (const c of wanted) data.set(c.role, read.get(c.id)!);
       return { timeS: ts, data };
     }
     if (!coversStart) start = attempt >= 2 ? 0 : Math.max(0, start - Math.ceil((ts[0] - lap.startTimeS) * rate) - margin * 10);

@@ -8,16 +8,28 @@
  */
 import os from "node:os";
 import { QueryTypes, type Sequelize, type Transaction } from "sequelize";
+import type { SampleArray } from "@/lib/channels/roles";
 import type { ParsedSeries } from "@/lib/ingest/parsed-series";
+import type { SampleSink, SinkChannel } from "@/lib/ingest/parse-csv-stream";
 
 export const CHUNK_SAMPLES = 10_000;
-/** Rows per batch() call: 40 channels × 40 kB stays far below max_allowed_packet. */
+/** Rows per batch() call: 64 chunks of at most 80 kB stay far below max_allowed_packet. */
 const ROWS_PER_BATCH = 64;
+/**
+ * Bytes handed to the writer but not yet acknowledged by the server beyond which the parser waits
+ * (sink.ready()): ~5 blocks of 10,000 rows of a 40-channel log — slack for the server's hiccups,
+ * and a bound on memory whatever the file size.
+ */
+const MAX_QUEUED_BYTES = 8 * 1024 * 1024;
+/** Copy buffers kept for reuse: as many as the queue can hold, plus the one being filled. */
+const MAX_SPARE = 8;
+const INSERT_CHUNK = "INSERT INTO channel_chunks (channel_id, chunk_index, sample_count, data) VALUES (?, ?, ?, ?)";
 
 if (os.endianness() !== "LE") throw new Error("Lapbench stores samples little-endian; this machine is big-endian");
 
 interface RawConnection {
   batch(sql: string, values: unknown[][]): Promise<unknown>;
+  query(sql: string, values?: unknown[]): Promise<unknown>;
 }
 
 function rawConnection(t: Transaction): RawConnection {
@@ -33,8 +45,172 @@ export interface StoredChannel {
   unit: string;
 }
 
+/** What the writer cannot see in the blocks alone: per channel (SinkChannel order), the finite samples and their range. */
+export interface ChannelStats {
+  sampleCount: number;
+  /** NaN when sampleCount is 0. */
+  min: number;
+  max: number;
+}
+
 function rateHz(sampleCount: number, durationS: number): number | null {
   return durationS > 0 && sampleCount > 1 ? (sampleCount - 1) / durationS : null;
+}
+
+const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null);
+
+/**
+ * Writes a session's samples inside the caller's transaction as blocks of rows arrive (a
+ * SampleSink for parseCsvStream), so the database stores one block while the parser fills the
+ * next. Nothing is visible before the caller commits; after a failure, call settle() and roll back.
+ */
+export interface SampleWriter extends SampleSink {
+  /** Waits for every write, sets each channel's sample count, rate and range, and returns the channels (time first). */
+  finish(stats: ChannelStats[]): Promise<StoredChannel[]>;
+  /** Waits until no write of this writer is in flight (errors swallowed): call before rolling back after a failure. */
+  settle(): Promise<void>;
+}
+
+export function openSampleWriter(sequelize: Sequelize, t: Transaction, sessionId: number): SampleWriter {
+  const conn = rawConnection(t);
+  let tail: Promise<void> = Promise.resolve();
+  let failure: unknown;
+  let queuedBytes = 0;
+  let waiting: (() => void)[] = [];
+  let defs: SinkChannel[] | null = null;
+  const ids: number[] = [];
+  /** Copy buffers of written blocks, for the next blocks of the usual size (spareBytes). */
+  const spare: Buffer[] = [];
+  let spareBytes = -1;
+  let rows = 0;
+  let firstTimeS = NaN;
+  let lastTimeS = NaN;
+
+  const wake = () => {
+    const w = waiting;
+    waiting = [];
+    for (const r of w) r();
+  };
+  /** Run `work` after everything queued before it, once; a failure skips the rest and is reported by ready()/finish(). */
+  function enqueue(bytes: number, work: () => Promise<void>): void {
+    queuedBytes += bytes;
+    tail = tail
+      .then(() => (failure === undefined ? work() : undefined))
+      .catch((e: unknown) => {
+        if (failure === undefined) failure = e;
+      })
+      .finally(() => {
+        queuedBytes -= bytes;
+        wake();
+      });
+  }
+
+  return {
+    // One chunk per channel per block: rows reach the server as soon as a chunk is complete, so the
+    // write left over when the parse ends is one chunk per channel.
+    blockRows: CHUNK_SAMPLES,
+
+    start(channels: SinkChannel[]): void {
+      if (defs) throw new Error("the sample writer was started twice");
+      defs = [{ name: "Time", role: "time" as SinkChannel["role"], unit: "s", valueType: "f64" }, ...channels];
+      const all = defs;
+      enqueue(0, async () => {
+        // Delete by primary key, and only when there is something to delete: a DELETE that matches no
+        // row still gap-locks the end of the session_id index, and two workers ingesting new sessions
+        // at once would then deadlock on each other's channel inserts.
+        const old = await sequelize.query<{ id: number }>("SELECT id FROM channels WHERE session_id = ?", { replacements: [sessionId], transaction: t, type: QueryTypes.SELECT });
+        if (old.length) {
+          await sequelize.query(`DELETE FROM channels WHERE id IN (${old.map(() => "?").join(",")})`, { replacements: old.map((r) => r.id), transaction: t, type: QueryTypes.DELETE });
+        }
+        // The foreign-key check of a channel row share-locks its session row until commit, and the
+        // transaction now stays open for the whole parse: the parse's progress updates (another
+        // connection) would wait on it and land after "ready". So the channel inserts skip the check
+        // (only on this connection, only for these inserts), and finish() takes that lock instead.
+        await conn.query("SET SESSION foreign_key_checks = 0");
+        try {
+          for (const d of all) {
+            const [id] = await sequelize.query(
+              `INSERT INTO channels (session_id, name, role, unit, source_column, sample_count, value_type, chunk_size) VALUES (?, ?, ?, ?, ?, 0, ?, ?)`,
+              { replacements: [sessionId, d.name, d.role, d.unit, d.name, d.valueType, CHUNK_SAMPLES], transaction: t, type: QueryTypes.INSERT },
+            );
+            ids.push(Number(id));
+          }
+        } finally {
+          await conn.query("SET SESSION foreign_key_checks = 1");
+        }
+      });
+    },
+
+    block(startRow: number, n: number, timeS: Float64Array, values: readonly SampleArray[]): void {
+      if (!defs) throw new Error("the sample writer got rows before start()");
+      if (startRow !== rows || startRow % CHUNK_SAMPLES !== 0) throw new Error(`rows must arrive in whole chunks, in order: got ${startRow}, expected ${rows}`);
+      if (values.length !== defs.length - 1) throw new Error(`expected ${defs.length - 1} channels, got ${values.length}`);
+      if (n === 0) return;
+      if (rows === 0) firstTimeS = timeS[0];
+      lastTimeS = timeS[n - 1];
+      rows += n;
+      // The views are valid during this call only: copy them into one buffer, reused once written
+      // (a steady ~1.7 MB per block of a 40-channel log instead of fresh garbage for the collector).
+      const arrays: SampleArray[] = [timeS, ...values];
+      let bytes = 0;
+      for (const a of arrays) bytes += n * a.BYTES_PER_ELEMENT;
+      const buf = (bytes === spareBytes && spare.pop()) || Buffer.allocUnsafe(bytes);
+      if (n === CHUNK_SAMPLES) spareBytes = bytes;
+      const pieces: { k: number; at: number; data: Buffer }[] = [];
+      let off = 0;
+      for (let k = 0; k < arrays.length; k++) {
+        const a = arrays[k];
+        buf.set(new Uint8Array(a.buffer, a.byteOffset, n * a.BYTES_PER_ELEMENT), off);
+        const width = a.BYTES_PER_ELEMENT;
+        for (let at = 0; at < n; at += CHUNK_SAMPLES) {
+          const len = Math.min(n, at + CHUNK_SAMPLES) - at;
+          pieces.push({ k, at, data: buf.subarray(off + at * width, off + (at + len) * width) });
+        }
+        off += n * width;
+      }
+      enqueue(bytes, async () => {
+        try {
+          for (let i = 0; i < pieces.length; i += ROWS_PER_BATCH) {
+            await conn.batch(
+              INSERT_CHUNK,
+              pieces.slice(i, i + ROWS_PER_BATCH).map((p) => [ids[p.k], (startRow + p.at) / CHUNK_SAMPLES, p.data.byteLength / arrays[p.k].BYTES_PER_ELEMENT, p.data]),
+            );
+          }
+        } finally {
+          // batch() has sent the bytes (the driver copies parameters into its packets).
+          if (bytes === spareBytes && spare.length < MAX_SPARE) spare.push(buf);
+        }
+      });
+    },
+
+    async ready(): Promise<void> {
+      while (failure === undefined && queuedBytes > MAX_QUEUED_BYTES) await new Promise<void>((r) => waiting.push(r));
+      if (failure !== undefined) throw failure;
+    },
+
+    async finish(stats: ChannelStats[]): Promise<StoredChannel[]> {
+      if (!defs) throw new Error("the sample writer was never started");
+      if (stats.length !== defs.length - 1) throw new Error(`expected stats of ${defs.length - 1} channels, got ${stats.length}`);
+      await tail;
+      if (failure !== undefined) throw failure;
+      spare.length = 0; // no more blocks: let the copy buffers go before the analysis
+      // What the skipped foreign-key checks would have proved, taken now that the parse is over: the
+      // session row exists, share-locked so it cannot go away before the commit.
+      const session = await sequelize.query<{ id: number }>("SELECT id FROM ride_sessions WHERE id = ? LOCK IN SHARE MODE", { replacements: [sessionId], transaction: t, type: QueryTypes.SELECT });
+      if (session.length === 0) throw new Error(`session ${sessionId} was deleted while its samples were written`);
+      const durationS = rows > 1 ? lastTimeS - firstTimeS : 0;
+      const all: ChannelStats[] = [{ sampleCount: rows, min: rows ? firstTimeS : NaN, max: rows ? lastTimeS : NaN }, ...stats];
+      await conn.batch(
+        "UPDATE channels SET sample_count = ?, rate_hz = ?, min_value = ?, max_value = ? WHERE id = ?",
+        all.map((st, k) => [st.sampleCount, rateHz(st.sampleCount, durationS), finiteOrNull(st.min), finiteOrNull(st.max), ids[k]]),
+      );
+      return defs.map((d, k) => ({ id: ids[k], name: d.name, role: d.role, unit: d.unit }));
+    },
+
+    async settle(): Promise<void> {
+      await tail;
+    },
+  };
 }
 
 /**
@@ -48,49 +224,21 @@ export async function writeSessionSamples(
   series: ParsedSeries,
   onProgress?: (fraction: number) => void,
 ): Promise<StoredChannel[]> {
-  // Delete by primary key, and only when there is something to delete: a DELETE that matches no
-  // row still gap-locks the end of the session_id index, and two workers ingesting new sessions
-  // at once would then deadlock on each other's channel inserts.
-  const old = await sequelize.query<{ id: number }>("SELECT id FROM channels WHERE session_id = ?", { replacements: [sessionId], transaction: t, type: QueryTypes.SELECT });
-  if (old.length) {
-    await sequelize.query(`DELETE FROM channels WHERE id IN (${old.map(() => "?").join(",")})`, { replacements: old.map((r) => r.id), transaction: t, type: QueryTypes.DELETE });
-  }
-  const durationS = series.rows > 1 ? series.timeS[series.rows - 1] - series.timeS[0] : 0;
-  const defs = [
-    { name: "Time", role: "time", unit: "s", values: series.timeS as Float64Array | Float32Array, sampleCount: series.rows, min: series.timeS[0] ?? NaN, max: series.timeS[series.rows - 1] ?? NaN, valueType: "f64" },
-    ...series.channels.map((c) => ({ name: c.name, role: c.role, unit: c.unit, values: c.values, sampleCount: c.sampleCount, min: c.min, max: c.max, valueType: c.values instanceof Float64Array ? "f64" : "f32" })),
-  ];
-  const stored: StoredChannel[] = [];
-  const conn = rawConnection(t);
-  let done = 0;
-  for (const d of defs) {
-    const [id] = await sequelize.query(
-      `INSERT INTO channels (session_id, name, role, unit, source_column, sample_count, rate_hz, min_value, max_value, value_type, chunk_size)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-      {
-        replacements: [sessionId, d.name, d.role, d.unit, d.name, d.sampleCount, rateHz(d.sampleCount, durationS), Number.isFinite(d.min) ? d.min : null, Number.isFinite(d.max) ? d.max : null, d.valueType, CHUNK_SAMPLES],
-        transaction: t,
-        type: QueryTypes.INSERT,
-      },
-    );
-    const channelId = Number(id);
-    stored.push({ id: channelId, name: d.name, role: d.role, unit: d.unit });
-    const n = series.rows;
-    let batch: unknown[][] = [];
-    for (let start = 0, idx = 0; start < n; start += CHUNK_SAMPLES, idx++) {
-      const end = Math.min(n, start + CHUNK_SAMPLES);
-      const view = d.values.subarray(start, end);
-      batch.push([channelId, idx, end - start, Buffer.from(view.buffer, view.byteOffset, view.byteLength)]);
-      if (batch.length >= ROWS_PER_BATCH) {
-        await conn.batch("INSERT INTO channel_chunks (channel_id, chunk_index, sample_count, data) VALUES (?, ?, ?, ?)", batch);
-        batch = [];
-      }
+  const writer = openSampleWriter(sequelize, t, sessionId);
+  writer.start(series.channels.map((c) => ({ name: c.name, role: c.role, unit: c.unit, valueType: c.values instanceof Float64Array ? "f64" : "f32" })));
+  const n = series.rows;
+  try {
+    for (let start = 0; start < n; start += writer.blockRows) {
+      const end = Math.min(n, start + writer.blockRows);
+      writer.block(start, end - start, series.timeS.subarray(start, end), series.channels.map((c) => c.values.subarray(start, end)));
+      await writer.ready();
+      onProgress?.(end / n);
     }
-    if (batch.length) await conn.batch("INSERT INTO channel_chunks (channel_id, chunk_index, sample_count, data) VALUES (?, ?, ?, ?)", batch);
-    done++;
-    onProgress?.(done / defs.length);
+    return await writer.finish(series.channels.map((c) => ({ sampleCount: c.sampleCount, min: c.min, max: c.max })));
+  } catch (e) {
+    await writer.settle();
+    throw e;
   }
-  return stored;
 }
 
 export interface ChannelInfo {

@@ -28,6 +28,19 @@ export async function sessionVisibility(ctx: TeamContext): Promise<WhereOptions>
   return { ...base, [Op.or]: [{ sharedWithRiders: true }, ...(ids.length ? [{ riderId: { [Op.in]: ids } }] : [])] };
 }
 
+/**
+ * The same rule as sessionVisibility, as SQL over ride_sessions aliased `alias`, for raw queries
+ * on hot paths: the rider's own riders are a subquery, so the rule costs no extra round trip.
+ */
+export function sessionVisibilitySql(ctx: TeamContext, alias: string): { sql: string; replacements: (string | number)[] } {
+  const base = `${alias}.team_id = ?`;
+  if (ctx.role !== "rider") return { sql: base, replacements: [ctx.teamId] };
+  return {
+    sql: `(${base} AND (${alias}.shared_with_riders = 1 OR ${alias}.rider_id IN (SELECT id FROM riders WHERE team_id = ? AND user_id = ?)))`,
+    replacements: [ctx.teamId, ctx.teamId, ctx.userId],
+  };
+}
+
 export async function listRecentSessions(ctx: TeamContext, limit = 20): Promise<SessionListItem[]> {
   initModels();
   const rows = await RideSession.findAll({ where: await sessionVisibility(ctx), order: [["createdAt", "DESC"]], limit });

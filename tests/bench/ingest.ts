@@ -57,8 +57,13 @@ interface RunFigures {
   uploadToReadyS: number;
   workerPeakMb: number;
   workerIdleMb: number;
-  /** The worker's own "job N ready in X ms" (claim → finishJob). */
+  /** The worker's own "job N ready in X ms" (claim → finishJob), and its stages. */
   workerJobS: number;
+  jobOpenS: number;
+  jobParseWriteS: number;
+  jobWriteTailS: number;
+  jobAnalysisS: number;
+  jobCommitS: number;
   parseS: number;
   writeS: number;
   analyseS: number;
@@ -156,7 +161,12 @@ async function fullPath(sequelize: Sequelize, fake: UploadFake, storageDir: stri
     const [{ n }] = await sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM channels WHERE session_id = ?", { replacements: [sessionId], type: QueryTypes.SELECT });
     for (let i = 0; i < 40 && !/ready in \d+ ms/.test(worker.output); i++) await sleep(25);
     const jobMs = Number(/ready in (\d+) ms/.exec(worker.output)?.[1] ?? NaN);
-    return { sessionId, channels: Number(n), fullS: (tReady - tEnqueue) / 1000, uploadToReadyS: (tReady - tUpload) / 1000, workerPeakMb, workerIdleMb, workerJobS: jobMs / 1000 };
+    // The worker's own stage times: "ready in N ms (open a, parseWrite b, writeTail c, analysis d, commit e ms)".
+    const stageMs = (name: string) => Number(new RegExp(`ready in \\d+ ms \\([^)]*\\b${name} (\\d+)`).exec(worker.output)?.[1] ?? NaN);
+    return {
+      sessionId, channels: Number(n), fullS: (tReady - tEnqueue) / 1000, uploadToReadyS: (tReady - tUpload) / 1000, workerPeakMb, workerIdleMb, workerJobS: jobMs / 1000,
+      jobOpenS: stageMs("open") / 1000, jobParseWriteS: stageMs("parseWrite") / 1000, jobWriteTailS: stageMs("writeTail") / 1000, jobAnalysisS: stageMs("analysis") / 1000, jobCommitS: stageMs("commit") / 1000,
+    };
   } finally {
     await stopWorker(worker);
   }
@@ -210,12 +220,14 @@ async function main(): Promise<void> {
         res.channels = b.channels;
         const r: RunFigures = {
           baselineS: a.seconds, baselinePeakMb: a.peakRssMb, fullS: b.fullS, uploadToReadyS: b.uploadToReadyS, workerPeakMb: b.workerPeakMb, workerIdleMb: b.workerIdleMb, workerJobS: b.workerJobS,
+          jobOpenS: b.jobOpenS, jobParseWriteS: b.jobParseWriteS, jobWriteTailS: b.jobWriteTailS, jobAnalysisS: b.jobAnalysisS, jobCommitS: b.jobCommitS,
           parseS: st.parseS, writeS: st.writeS, analyseS: st.analyseS, laps: st.laps, findings: st.findings, parsePeakMb: st.parsePeakRssMb,
         };
         res.runs.push(r);
         console.log(
           `  ${mb} MB run ${run}/${runs}: (a) ${f(r.baselineS)} s  (b) ${f(r.fullS)} s  b/a ${f(r.fullS / r.baselineS)}  worker peak ${f(r.workerPeakMb, 0)} MiB` +
-            `  | parse ${f(r.parseS)} s, write ${f(r.writeS)} s, analysis ${f(r.analyseS, 3)} s`,
+            `  | parse ${f(r.parseS)} s, write ${f(r.writeS)} s, analysis ${f(r.analyseS, 3)} s` +
+            `  | worker: open ${f(r.jobOpenS)}, parse+write ${f(r.jobParseWriteS)}, write tail ${f(r.jobWriteTailS)}, analysis ${f(r.jobAnalysisS)}, commit ${f(r.jobCommitS)} s`,
         );
       }
     }
@@ -259,6 +271,14 @@ async function main(): Promise<void> {
           `${f(m(r.runs, "parsePeakMb"), 0)} MiB`, `${f(m(r.runs, "workerIdleMb"), 0)} MiB`, f(m(r.runs, "workerJobS")), f(m(r.runs, "uploadToReadyS")),
         ];
       }),
+    );
+    console.log(`\nThe worker's own stages in (b) (its log line; medians of ${runs}): the CSV is parsed and its chunks written at the same time\n`);
+    printTable(
+      ["file", "open file s", "parse + write s", "parse+write / (a)", "write tail s", "analysis s", "commit s", "worker's job s"],
+      results.map((r) => [
+        `${(r.bytes / 1e6).toFixed(1)} MB`, f(m(r.runs, "jobOpenS")), f(m(r.runs, "jobParseWriteS")), f(m(r.runs, "jobParseWriteS") / m(r.runs, "baselineS")), f(m(r.runs, "jobWriteTailS")),
+        f(m(r.runs, "jobAnalysisS")), f(m(r.runs, "jobCommitS")), f(m(r.runs, "workerJobS")),
+      ]),
     );
     console.log(
       `\n(b) runs from the job's enqueue to status "ready" (the worker polls every ${WORKER_POLL_MS} ms); upload→ready adds registerUpload's sniff of the first bytes.` +

@@ -1,4 +1,4 @@
-import { sampleArrayFor, type SampleArray } from "@/lib/channels/roles";
+import { FLOAT64_ROLES, sampleArrayFor, type SampleArray } from "@/lib/channels/roles";
 import { Readable } from "node:stream";
 import Papa from "papaparse";
 import { readCsvHeader, type CsvHeader } from "./csv-header";
@@ -34,6 +34,51 @@ const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12,
 export interface ParseCsvOptions {
   /** For messages; default "upload.csv". */
   fileName?: string;
+  /**
+   * Receives every block of rows as soon as it is complete, while the rest of the file is still
+   * being parsed (the worker writes them to the database meanwhile, so parse and write overlap).
+   */
+  sink?: SampleSink;
+  /**
+   * Which channels the returned series keeps in memory (default: all). The others come back with
+   * empty `values` (their counts, min and max are still set): their samples went to the sink only,
+   * so memory no longer grows with them. Only useful with a sink.
+   */
+  keep?: (role: ParsedChannel["role"]) => boolean;
+  /**
+   * The file's size in bytes, when known. With a sink, the kept channels are then sized once from
+   * it (rows of the first block × bytes to come) instead of growing; the returned arrays are views
+   * of exactly `rows` samples.
+   */
+  expectedBytes?: number;
+}
+
+/** A channel as the sink learns of it before the first row: same order as ParsedSeries.channels. */
+export interface SinkChannel {
+  name: string;
+  role: ParsedChannel["role"];
+  unit: string;
+  valueType: "f32" | "f64";
+}
+
+/** Where parseCsvStream sends complete blocks of rows as it goes. */
+export interface SampleSink {
+  /**
+   * Rows per block (each block but the last is exactly this long): a sink that stores fixed-size
+   * chunks gives its chunk size, or a multiple of it.
+   */
+  readonly blockRows: number;
+  /** Called once, after the header and mapping were checked and before any block. */
+  start(channels: SinkChannel[]): void;
+  /**
+   * Rows [startRow, startRow + rows) of the time and every channel (values in SinkChannel order),
+   * in SI units, NaN for no sample: views of exactly `rows` elements, valid during the call only
+   * (the parser refills the blocks of channels it does not keep), so a sink that writes later
+   * copies them first.
+   */
+  block(startRow: number, rows: number, timeS: Float64Array, values: readonly SampleArray[]): void;
+  /** Resolves when the sink can take more (the parser waits before reading on); rejects when it failed. */
+  ready(): Promise<void>;
 }
 
 interface ChannelPlan {
@@ -52,7 +97,10 @@ interface ChannelPlan {
  * cell as it goes. Throws IngestError naming the line and column on the first problem; returns
  * nothing partial. Memory: samples fill fixed blocks (BLOCK_ROWS), joined into one array per
  * channel at the end, freeing the blocks as it goes: the peak is the output plus the blocks the
- * collector has not freed yet, not the up-to-twice-the-output of doubling arrays.
+ * collector has not freed yet, not the up-to-twice-the-output of doubling arrays. With a sink
+ * (options.sink) every `sink.blockRows` rows go to the sink as soon as they are complete; the
+ * channels the caller keeps (options.keep) fill one array each, sized from options.expectedBytes,
+ * and the others refill one block each, so memory follows the kept channels only.
  */
 export async function parseCsvStream(
   readable: NodeJS.ReadableStream | AsyncIterable<Buffer | string>,
@@ -109,10 +157,16 @@ export async function parseCsvStream(
   const { timeColumn, channels } = plan;
   const rest = preamble.slice(header.dataStartOffset);
   preamble = "";
+  const sink = options.sink;
+  const keep = channels.map((c) => !sink || !options.keep || options.keep(c.role));
+  sink?.start(channels.map((c) => ({ name: c.column.name, role: c.role, unit: c.unit, valueType: FLOAT64_ROLES.has(c.role) ? "f64" : "f32" })));
 
   async function* textForPapa(): AsyncGenerator<string> {
     if (rest) yield rest;
     for (;;) {
+      // Backpressure: no more text while the sink is behind, so blocks waiting for the database
+      // stay few instead of piling up in memory.
+      if (sink) await sink.ready();
       const next = await decoded.next();
       if (next.done) return;
       yield next.value;
@@ -131,11 +185,27 @@ export async function parseCsvStream(
   const timeDivisor = timeFormat === "seconds" ? 1 : 1000;
   const fieldCount = header.fieldCount;
   const decimalComma = header.decimalComma;
-  // Full blocks so far, and the block being filled (`pos` rows in it).
+  const sinkRows = sink ? sink.blockRows : 0;
+  if (sink && !(Number.isInteger(sinkRows) && sinkRows > 0)) throw new Error(`sink.blockRows must be a positive integer, got ${sinkRows}`);
+  // Storage blocks hold whole sink blocks, so each sink block is a view of one storage block.
+  const blockRows = sink ? Math.ceil(BLOCK_ROWS / sinkRows) * sinkRows : BLOCK_ROWS;
+  /** Rows in the current storage block when full (always blockRows without a sink). */
+  let curRows = blockRows;
+  /** Rows of the current storage block already handed to the sink. */
+  let sent = 0;
+  // Without a sink: full blocks so far, joined at the end.
   const timeBlocks: Float64Array[] = [];
   const valueBlocks: SampleArray[][] = channels.map(() => []);
-  let timeS = new Float64Array(BLOCK_ROWS);
-  let values: SampleArray[] = channels.map((c) => sampleArrayFor(c.role, BLOCK_ROWS));
+  // With a sink: time and the kept channels live in one array each, sized from the file's size
+  // (options.expectedBytes) once the first block shows the bytes per row, and the block being
+  // filled is a view of it — no join at the end, whose blocks-plus-result held twice the kept
+  // samples (200 MB log: ~140 MB of arrays instead of ~70). Other channels refill one block each,
+  // so they allocate nothing after the first block.
+  let keptTime: Float64Array | null = sink ? new Float64Array(blockRows) : null;
+  const keptValues: (SampleArray | null)[] = channels.map((c, k) => (sink && keep[k] ? sampleArrayFor(c.role, blockRows) : null));
+  // The block being filled (`pos` rows in it).
+  let timeS = keptTime ?? new Float64Array(blockRows);
+  let values: SampleArray[] = channels.map((c, k) => keptValues[k] ?? sampleArrayFor(c.role, blockRows));
   let pos = 0;
   const counts = new Array<number>(nch).fill(0);
   const mins = new Array<number>(nch).fill(Infinity);
@@ -149,12 +219,47 @@ export async function parseCsvStream(
   let firstTimeCell = "";
   let pendingShort: { line: number; found: number } | undefined;
 
+  /** Hand rows [sent, pos) of the current storage block to the sink. */
+  function send(): void {
+    const from = sent;
+    const to = pos;
+    sent = pos;
+    sink!.block(rows - (pos - from), to - from, timeS.subarray(from, to), values.map((v) => v.subarray(from, to)));
+  }
+
   function nextBlock(): void {
-    timeBlocks.push(timeS);
-    timeS = new Float64Array(BLOCK_ROWS);
-    for (let k = 0; k < nch; k++) valueBlocks[k].push(values[k]);
-    values = channels.map((c) => sampleArrayFor(c.role, BLOCK_ROWS));
+    sent = 0;
     pos = 0;
+    if (!keptTime) {
+      timeBlocks.push(timeS);
+      timeS = new Float64Array(blockRows);
+      for (let k = 0; k < nch; k++) valueBlocks[k].push(values[k]);
+      values = channels.map((c) => sampleArrayFor(c.role, blockRows));
+      return;
+    }
+    // `rows` is where the new block starts.
+    if (keptTime.length < rows + sinkRows) growKept();
+    curRows = Math.min(blockRows, keptTime.length - rows);
+    timeS = keptTime.subarray(rows, rows + curRows);
+    // Channels not kept refill the same block: the sink copied what it was handed.
+    values = values.map((v, k) => keptValues[k]?.subarray(rows, rows + curRows) ?? v);
+  }
+
+  /** Room for the rest of the file: rows so far scaled by the bytes still to come, +5% for longer lines later on. */
+  function growKept(): void {
+    const expectedBytes = options.expectedBytes ?? 0;
+    const estimate = expectedBytes > progress.bytesRead && progress.bytesRead > 0 ? Math.ceil(((rows * expectedBytes) / progress.bytesRead) * 1.05) : 2 * rows;
+    const cap = Math.ceil(Math.max(rows + blockRows, estimate) / sinkRows) * sinkRows;
+    const t = new Float64Array(cap);
+    t.set(keptTime!.subarray(0, rows));
+    keptTime = t;
+    for (let k = 0; k < nch; k++) {
+      const old = keptValues[k];
+      if (!old) continue;
+      const a = sampleArrayFor(channels[k].role, cap);
+      a.set(old.subarray(0, rows));
+      keptValues[k] = a;
+    }
   }
 
   function fieldCountError(at: { line: number; found: number }, last: boolean): IngestError {
@@ -165,6 +270,11 @@ export async function parseCsvStream(
   }
 
   function readTime(cell: string, lineNo: number): number {
+    // Plain decimals (nearly every time cell of a logger) take the exact fast path below.
+    if (timeFormat !== "iso8601") {
+      const fast = plainDecimal(cell);
+      if (fast === fast) return fast;
+    }
     if (cell.trim() === "") {
       throw new IngestError("BAD_TIME", `Line ${lineNo}, column ${quoteForMessage(timeHeader)}: the time is empty; every line needs a time.`, { line: lineNo, column: timeHeader });
     }
@@ -213,14 +323,14 @@ export async function parseCsvStream(
         }
         throw new IngestError(
           "TIME_BACKWARDS",
-          `Line ${line}, column ${quoteForMessage(timeHeader)}: time goes backwards, ${quoteForMessage(tCell.trim())} after ${quoteForMessage(prevCell)} on line ${prevLine}; times must increase.`,
+          `Line ${line}, column ${quoteForMessage(timeHeader)}: time goes backwards, ${quoteForMessage(tCell.trim())} after ${quoteForMessage(prevCell.trim())} on line ${prevLine}; times must increase.`,
           { line, column: timeHeader },
         );
       }
       prevRaw = t;
-      prevCell = tCell.trim();
+      prevCell = tCell; // trimmed only for a message
       prevLine = line;
-      if (pos === BLOCK_ROWS) nextBlock();
+      if (pos === curRows) nextBlock();
       // Subtract in the file's own unit first: epoch milliseconds keep sub-ms steps exact enough.
       timeS[pos] = (t - t0) / timeDivisor;
       for (let k = 0; k < nch; k++) {
@@ -250,6 +360,7 @@ export async function parseCsvStream(
       }
       pos++;
       rows++;
+      if (sinkRows && pos - sent === sinkRows) send();
     }
   }
 
@@ -301,22 +412,33 @@ export async function parseCsvStream(
     throw new IngestError("HEADER_ONLY", `The file has a header (line ${header.headerLine}) but no data lines.`, { line: header.headerLine });
   }
 
-  // 3. Join the blocks, one channel at a time, dropping each channel's blocks once copied. The
-  // yield between channels lets V8's collector run its tasks and free the dropped blocks; joined
-  // synchronously, they outlived the join (200 MB log: 414 MiB peak without the yield, 387 with).
-  const yieldToLoop = () => new Promise<void>((r) => setImmediate(r));
-  timeBlocks.push(timeS.subarray(0, pos));
-  const joinedTime = joinBlocks(timeBlocks, new Float64Array(rows));
-  timeBlocks.length = 0;
   const out: ParsedChannel[] = [];
-  for (let k = 0; k < nch; k++) {
-    const c = channels[k];
-    valueBlocks[k].push(values[k].subarray(0, pos));
-    const joined = joinBlocks(valueBlocks[k], sampleArrayFor(c.role, rows));
-    valueBlocks[k] = [];
-    values[k] = joined; // the current block is no longer referenced either
-    out.push({ name: c.column.name, role: c.role, unit: c.unit, values: joined, sampleCount: counts[k], min: counts[k] > 0 ? mins[k] : NaN, max: counts[k] > 0 ? maxs[k] : NaN });
-    await yieldToLoop();
+  const stats = (k: number) => ({ sampleCount: counts[k], min: counts[k] > 0 ? mins[k] : NaN, max: counts[k] > 0 ? maxs[k] : NaN });
+  let joinedTime: Float64Array;
+  if (keptTime) {
+    if (pos > sent) send();
+    joinedTime = keptTime.subarray(0, rows);
+    for (let k = 0; k < nch; k++) {
+      const c = channels[k];
+      out.push({ name: c.column.name, role: c.role, unit: c.unit, values: keptValues[k]?.subarray(0, rows) ?? sampleArrayFor(c.role, 0), ...stats(k) });
+    }
+  } else {
+    // 3. Join the blocks, one channel at a time, dropping each channel's blocks once copied. The
+    // yield between channels lets V8's collector run its tasks and free the dropped blocks; joined
+    // synchronously, they outlived the join (200 MB log: 414 MiB peak without the yield, 387 with).
+    const yieldToLoop = () => new Promise<void>((r) => setImmediate(r));
+    timeBlocks.push(timeS.subarray(0, pos));
+    joinedTime = joinBlocks(timeBlocks, new Float64Array(rows));
+    timeBlocks.length = 0;
+    for (let k = 0; k < nch; k++) {
+      const c = channels[k];
+      valueBlocks[k].push(values[k].subarray(0, pos));
+      const joined = joinBlocks(valueBlocks[k], sampleArrayFor(c.role, rows));
+      valueBlocks[k] = [];
+      values[k] = joined; // the current block is no longer referenced either
+      out.push({ name: c.column.name, role: c.role, unit: c.unit, values: joined, ...stats(k) });
+      await yieldToLoop();
+    }
   }
   values = [];
   const metadata: Record<string, string> = { ...header.metadata, source_format: "csv", time_format: timeFormat, first_time_value: firstTimeCell };

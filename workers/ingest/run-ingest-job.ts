@@ -6,7 +6,7 @@
  */
 import { Readable } from "node:stream";
 import type { ReadableStream as WebReadableStream } from "node:stream/web";
-import type { Sequelize } from "sequelize";
+import type { Sequelize, Transaction } from "sequelize";
 import { initModels, LogFile, RideSession } from "../../models";
 import { parseCsvStream } from "../../lib/ingest/parse-csv-stream";
 import { parseGpx } from "../../lib/ingest/parse-gpx";
@@ -16,28 +16,56 @@ import { LIMITS, type IngestLimits } from "../../lib/ingest/limits";
 import type { Mapping } from "../../lib/ingest/mapping";
 import type { ParsedSeries } from "../../lib/ingest/parsed-series";
 import type { ImportPreview } from "../../lib/data/imports";
-import { writeSessionSamples } from "../../lib/data/samples";
-import { analyseAndStore } from "./analyse-session";
+import { openSampleWriter, writeSessionSamples } from "../../lib/data/samples";
+import { ANALYSED_ROLES, analyseAndStore } from "./analyse-session";
 
 export class RetryableError extends Error {}
 
-export interface IngestJobOptions {
-  limits?: IngestLimits;
-  /** Test hook: called after parsing, before the write transaction. */
-  afterParse?: () => Promise<void>;
+/** Milliseconds per stage of one job, for the worker's log and the benchmark. */
+export interface IngestTimings {
+  /** Session and file rows read, the stored file opened. */
+  openMs?: number;
+  /** Parse, and for CSV the chunk writes that overlap it (GPX and NMEA write after parsing). */
+  parseWriteMs?: number;
+  /** From the end of the parse to the last chunk written and the channel rows updated. */
+  writeTailMs?: number;
+  analysisMs?: number;
+  commitMs?: number;
 }
 
+export interface IngestJobOptions {
+  limits?: IngestLimits;
+  /** Test hook: called after parsing (inside the write transaction for CSV, before it otherwise). */
+  afterParse?: () => Promise<void>;
+  /** Filled in with the stage times. */
+  timings?: IngestTimings;
+}
+
+/**
+ * Progress updates of the session row, at most one every 400 ms, one at a time and in order:
+ * `settle()` waits for the last, so none can land after the write transaction's lock on the row
+ * (it would wait for the commit and then set an old percentage over "ready"). A failed update is
+ * only logged: progress is a hint, not worth failing the job or crashing the worker for.
+ */
 function progressUpdater(sequelize: Sequelize, sessionId: number) {
   let last = 0;
   let lastPct = -1;
-  return async (pct: number, force = false) => {
+  let chain: Promise<void> = Promise.resolve();
+  const set = (pct: number, force = false): Promise<void> => {
     const now = Date.now();
     const p = Math.max(0, Math.min(99, Math.round(pct)));
-    if (!force && (now - last < 400 || p === lastPct)) return;
+    if (!force && (now - last < 400 || p === lastPct)) return chain;
     last = now;
     lastPct = p;
-    await RideSession.update({ progress: p }, { where: { id: sessionId } });
+    chain = chain.then(() =>
+      RideSession.update({ progress: p }, { where: { id: sessionId } }).then(
+        () => undefined,
+        (e: unknown) => console.log(`[ingest] session ${sessionId}: progress update failed: ${e instanceof Error ? e.message : String(e)}`),
+      ),
+    );
+    return chain;
   };
+  return Object.assign(set, { settle: () => chain });
 }
 
 async function openStored(url: string): Promise<Readable> {
@@ -53,6 +81,8 @@ async function openStored(url: string): Promise<Readable> {
 }
 
 export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts: IngestJobOptions = {}): Promise<"ready" | "failed"> {
+  const timings = opts.timings ?? {};
+  let t0 = performance.now();
   initModels(sequelize);
   const session = await RideSession.findByPk(sessionId);
   if (!session) return "failed";
@@ -68,54 +98,94 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
   const setProgress = progressUpdater(sequelize, sessionId);
   const totalBytes = Math.max(1, Number(log.bytes));
 
+  /** The end of every format's transaction: the test pause, the analysis, the session marked ready. */
+  async function analyseAndFinish(t: Transaction, parsed: ParsedSeries): Promise<void> {
+    // Tests kill the worker here, mid-transaction, to prove nothing partial becomes visible.
+    const pauseMs = Number(process.env.LAPBENCH_TEST_PAUSE_BEFORE_COMMIT_MS ?? 0);
+    if (pauseMs > 0) {
+      console.log(`[worker] session ${sessionId}: samples written, pausing ${pauseMs} ms before commit`);
+      await new Promise((r) => setTimeout(r, pauseMs));
+    }
+    const ta = performance.now();
+    await analyseAndStore(sequelize, t, session!, parsed);
+    const startIso = parsed.metadata.start_time_iso;
+    const durationS = parsed.rows > 1 ? parsed.timeS[parsed.rows - 1] - parsed.timeS[0] : 0;
+    await RideSession.update(
+      {
+        status: "ready",
+        progress: 100,
+        statusReason: null,
+        durationS,
+        ...(startIso && !session!.startedAt && !Number.isNaN(Date.parse(startIso)) ? { startedAt: new Date(startIso) } : {}),
+      },
+      { where: { id: sessionId }, transaction: t },
+    );
+    timings.analysisMs = performance.now() - ta;
+  }
+
   try {
     const stream = await openStored(log.url);
+    timings.openMs = performance.now() - t0;
+    t0 = performance.now();
     const onProgress = (p: { bytesRead: number }) => void setProgress((p.bytesRead / totalBytes) * 80);
-    let parsed: ParsedSeries;
+    let tCallbackEnd = 0;
     if (format === "csv") {
       if (!session.mapping) throw new IngestError("MAPPING_MISMATCH", "This CSV has no column mapping yet; open the session and map its columns.");
-      parsed = await parseCsvStream(stream, session.mapping as Mapping, limits, onProgress, { fileName: log.name });
-    } else if (format === "nmea") {
-      parsed = await parseNmea(stream, { fileName: log.name, limits, onProgress });
+      const mapping = session.mapping as Mapping;
+      // One transaction from the first parsed block to the analysis: chunks are written while the
+      // rest of the file is parsed (the database works on the other core), and only the channels
+      // the analysis reads stay in memory. Bad input found late rolls every chunk back.
+      await sequelize.transaction(async (t) => {
+        const writer = openSampleWriter(sequelize, t, sessionId);
+        let parsed: ParsedSeries;
+        try {
+          parsed = await parseCsvStream(stream, mapping, limits, onProgress, { fileName: log.name, sink: writer, keep: (role) => ANALYSED_ROLES.has(role), expectedBytes: Number(log.bytes) });
+          timings.parseWriteMs = performance.now() - t0;
+          t0 = performance.now();
+          // Before finish(): it share-locks the session row, which an update from outside would wait on.
+          await setProgress(85, true);
+          await setProgress.settle();
+          await opts.afterParse?.();
+          await writer.finish(parsed.channels.map((c) => ({ sampleCount: c.sampleCount, min: c.min, max: c.max })));
+          timings.writeTailMs = performance.now() - t0;
+        } catch (e) {
+          // The rollback must follow the writes still in flight on this connection.
+          await writer.settle();
+          throw e;
+        }
+        await analyseAndFinish(t, parsed);
+        tCallbackEnd = performance.now();
+      });
     } else {
-      const parts: Buffer[] = [];
-      let size = 0;
-      for await (const chunk of stream) {
-        size += (chunk as Buffer).length;
-        if (size > limits.maxBytes) throw new IngestError("FILE_TOO_LARGE", `"${log.name}" is larger than the ${Math.round(limits.maxBytes / 1048576)} MB limit.`);
-        parts.push(chunk as Buffer);
+      let parsed: ParsedSeries;
+      if (format === "nmea") {
+        parsed = await parseNmea(stream, { fileName: log.name, limits, onProgress });
+      } else {
+        const parts: Buffer[] = [];
+        let size = 0;
+        for await (const chunk of stream) {
+          size += (chunk as Buffer).length;
+          if (size > limits.maxBytes) throw new IngestError("FILE_TOO_LARGE", `"${log.name}" is larger than the ${Math.round(limits.maxBytes / 1048576)} MB limit.`);
+          parts.push(chunk as Buffer);
+        }
+        parsed = parseGpx(Buffer.concat(parts), { fileName: log.name, limits });
       }
-      parsed = parseGpx(Buffer.concat(parts), { fileName: log.name, limits });
+      await setProgress(85, true);
+      await setProgress.settle();
+      await opts.afterParse?.();
+      await sequelize.transaction(async (t) => {
+        // No progress updates in here: the session row is locked (foreign keys of the new rows)
+        // until the commit, so an update from another connection would wait for it.
+        await writeSessionSamples(sequelize, t, sessionId, parsed);
+        timings.parseWriteMs = performance.now() - t0;
+        await analyseAndFinish(t, parsed);
+        tCallbackEnd = performance.now();
+      });
     }
-    await setProgress(85, true);
-    await opts.afterParse?.();
-
-    await sequelize.transaction(async (t) => {
-      // No progress updates in here: the new channel rows hold a lock on the session row (foreign
-      // key), so an update from another connection would wait for this transaction.
-      await writeSessionSamples(sequelize, t, sessionId, parsed);
-      // Tests kill the worker here, mid-transaction, to prove nothing partial becomes visible.
-      const pauseMs = Number(process.env.LAPBENCH_TEST_PAUSE_BEFORE_COMMIT_MS ?? 0);
-      if (pauseMs > 0) {
-        console.log(`[worker] session ${sessionId}: samples written, pausing ${pauseMs} ms before commit`);
-        await new Promise((r) => setTimeout(r, pauseMs));
-      }
-      await analyseAndStore(sequelize, t, session, parsed);
-      const startIso = parsed.metadata.start_time_iso;
-      const durationS = parsed.rows > 1 ? parsed.timeS[parsed.rows - 1] - parsed.timeS[0] : 0;
-      await RideSession.update(
-        {
-          status: "ready",
-          progress: 100,
-          statusReason: null,
-          durationS,
-          ...(startIso && !session.startedAt && !Number.isNaN(Date.parse(startIso)) ? { startedAt: new Date(startIso) } : {}),
-        },
-        { where: { id: sessionId }, transaction: t },
-      );
-    });
+    timings.commitMs = performance.now() - tCallbackEnd;
     return "ready";
   } catch (e) {
+    await setProgress.settle();
     if (e instanceof IngestError) {
       await RideSession.update({ status: "failed", statusReason: e.message, progress: 0 }, { where: { id: sessionId } });
       return "failed";

@@ -24,8 +24,9 @@ export default defineConfig({
           setupFiles: ["tests/setup/integration-env.ts"],
           testTimeout: 60_000,
           hookTimeout: 120_000,
-          // Two cores: files share one MariaDB; keep the pressure sane.
-          maxWorkers: 2,
+          // One file at a time: files share one MariaDB and one job queue, and the worker processes
+          // some tests start would otherwise take jobs queued by another file.
+          fileParallelism: false,
         },
       },
       {

@@ -11,6 +11,7 @@ import { initModels, LogFile, RideSession } from "../../models";
 import { parseCsvStream } from "../../lib/ingest/parse-csv-stream";
 import { parseGpx } from "../../lib/ingest/parse-gpx";
 import { parseNmea } from "../../lib/ingest/parse-nmea";
+import { sessionStartTime } from "../../lib/ingest/session-start-time";
 import { IngestError } from "../../lib/ingest/ingest-error";
 import { LIMITS, type IngestLimits } from "../../lib/ingest/limits";
 import type { Mapping } from "../../lib/ingest/mapping";
@@ -108,7 +109,7 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
     }
     const ta = performance.now();
     await analyseAndStore(sequelize, t, session!, parsed);
-    const startIso = parsed.metadata.start_time_iso;
+    const startedAt = sessionStartTime(parsed.metadata);
     const durationS = parsed.rows > 1 ? parsed.timeS[parsed.rows - 1] - parsed.timeS[0] : 0;
     await RideSession.update(
       {
@@ -116,7 +117,7 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
         progress: 100,
         statusReason: null,
         durationS,
-        ...(startIso && !session!.startedAt && !Number.isNaN(Date.parse(startIso)) ? { startedAt: new Date(startIso) } : {}),
+        ...(startedAt && !session!.startedAt ? { startedAt } : {}),
       },
       { where: { id: sessionId }, transaction: t },
     );

@@ -24,13 +24,14 @@ export async function enqueueJob(sequelize: Sequelize, sessionId: number, kind =
   return Number(id);
 }
 
-export async function claimJob(sequelize: Sequelize, workerId: string): Promise<ClaimedJob | null> {
+/** Claim the oldest runnable job, or (with `sessionId`) that session's job only. */
+export async function claimJob(sequelize: Sequelize, workerId: string, opts: { sessionId?: number } = {}): Promise<ClaimedJob | null> {
   return sequelize.transaction(async (t) => {
     const rows = await sequelize.query<{ id: number; kind: string; session_id: number | null; attempts: number; max_attempts: number; payload: string | null }>(
       `SELECT id, kind, session_id, attempts, max_attempts, payload FROM jobs
-        WHERE state = 'queued' AND run_after <= UTC_TIMESTAMP(3)
+        WHERE state = 'queued' AND run_after <= UTC_TIMESTAMP(3)${opts.sessionId != null ? " AND session_id = ?" : ""}
         ORDER BY id LIMIT 1 FOR UPDATE SKIP LOCKED`,
-      { type: QueryTypes.SELECT, transaction: t },
+      { type: QueryTypes.SELECT, transaction: t, replacements: opts.sessionId != null ? [opts.sessionId] : [] },
     );
     const r = rows[0];
     if (!r) return null;

@@ -35,7 +35,7 @@ afterAll(async () => {
 
 /** Run this session's job the way the worker does; returns the session's final reason. */
 async function runJobFor(sessionId: number): Promise<void> {
-  const job = await claimJob(getSequelize(), `hostile-test-${sessionId}`);
+  const job = await claimJob(getSequelize(), `hostile-test-${sessionId}`, { sessionId });
   expect(job?.sessionId).toBe(sessionId);
   const r = await runIngestJob(getSequelize(), sessionId);
   if (r === "ready") await finishJob(getSequelize(), job!.id);

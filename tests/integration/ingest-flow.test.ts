@@ -36,10 +36,11 @@ function exportCsv(rows: number, opts: { badCellAtRow?: number; extraHeader?: st
   return lines.join("\n") + "\n";
 }
 
-async function runOneJob(): Promise<"ready" | "failed" | null> {
-  const job = await claimJob(sequelize(), "test-runner");
+/** Run one session's job as the worker would (its own job: other files may have left jobs queued). */
+async function runOneJob(sessionId: number): Promise<"ready" | "failed" | null> {
+  const job = await claimJob(sequelize(), "test-runner", { sessionId });
   if (!job) return null;
-  const r = await runIngestJob(sequelize(), job.sessionId!);
+  const r = await runIngestJob(sequelize(), sessionId);
   if (r === "ready") await finishJob(sequelize(), job.id);
   else await failJob(sequelize(), job.id, "bad input");
   return r;
@@ -74,7 +75,7 @@ describe("upload → mapping → job → ready", () => {
     const s = await RideSession.findByPk(firstSession);
     await confirmMapping(sequelize(), team.teamId, firstSession, s!.mapping as Mapping, "Bench unit 3");
     expect(await ImportProfile.count({ where: { teamId: team.teamId } })).toBe(1);
-    expect(await runOneJob()).toBe("ready");
+    expect(await runOneJob(firstSession)).toBe("ready");
     const ready = await RideSession.findByPk(firstSession);
     expect(ready?.status).toBe("ready");
     expect(ready?.progress).toBe(100);
@@ -104,7 +105,7 @@ describe("upload → mapping → job → ready", () => {
     const s = await RideSession.findByPk(sessionId);
     expect(s?.status).toBe("queued");
     expect(s?.importProfileId).not.toBeNull();
-    expect(await runOneJob()).toBe("ready");
+    expect(await runOneJob(sessionId)).toBe("ready");
   });
 
   it.each(["rider", "viewer"] as const)("a %s cannot upload, and nothing is stored", async (role) => {
@@ -117,7 +118,7 @@ describe("upload → mapping → job → ready", () => {
     const body = exportCsv(300, { badCellAtRow: 200 });
     const { sessionId } = await up.upload(new File([body], "fp3-bike27.csv"), team.members.engineer.cookie);
     expect((await RideSession.findByPk(sessionId))?.status).toBe("queued");
-    expect(await runOneJob()).toBe("failed");
+    expect(await runOneJob(sessionId)).toBe("failed");
     const s = await RideSession.findByPk(sessionId);
     expect(s?.status).toBe("failed");
     // Line 204 = 3 preamble/header lines + row index 200 + 1.

@@ -2,14 +2,13 @@
  * The invented sample-log circuit and bike as a team's Track and Bike rows, and one sample file
  * taken through the real upload → mapping → ingest path onto them.
  */
+import { ingestNow } from "@/workers/ingest/ingest-now";
 import fs from "node:fs";
 import path from "node:path";
 import { getSequelize } from "@/models/db";
 import { initModels, Bike, RideSession, Track, Rider } from "@/models";
 import { CIRCUIT } from "@/sample-logs/circuit";
 import { confirmMapping } from "@/lib/data/imports";
-import { claimJob, finishJob } from "@/lib/data/jobs";
-import { runIngestJob } from "@/workers/ingest/run-ingest-job";
 import type { Mapping } from "@/lib/ingest/mapping";
 import type { UploadHarness } from "./ingest-harness";
 
@@ -66,17 +65,9 @@ export async function ingestSampleFile(
   const s = await RideSession.findByPk(sessionId);
   await s!.update({ trackId: link.trackId, bikeId: link.bikeId, riderId: link.riderId ?? null, sharedWithRiders: link.sharedWithRiders ?? false });
   if (s!.status === "mapping") await confirmMapping(getSequelize(), teamId, sessionId, s!.mapping as Mapping, `Profile ${sessionId}`);
-  // Run queued jobs until this session is done (other files' jobs may be queued too).
-  for (let k = 0; k < 5; k++) {
-    const job = await claimJob(getSequelize(), `analysis-test-${process.pid}`);
-    if (!job) break;
-    const r = await runIngestJob(getSequelize(), job.sessionId!);
-    await finishJob(getSequelize(), job.id);
-    if (job.sessionId === sessionId) {
-      if (r !== "ready") throw new Error(`ingest of ${file} failed: ${(await RideSession.findByPk(sessionId))?.statusReason}`);
-      break;
-    }
-  }
+  // This session's own job only: other test files may have left jobs in the shared queue.
+  const r = await ingestNow(getSequelize(), sessionId, `analysis-test-${process.pid}`);
+  if (r !== "ready") throw new Error(`ingest of ${file} failed (${r}): ${(await RideSession.findByPk(sessionId))?.statusReason}`);
   return sessionId;
 }
 

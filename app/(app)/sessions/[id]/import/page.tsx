@@ -50,7 +50,7 @@ export default async function ImportPage({ params }: { params: Promise<{ id: str
           </div>
           <div>
             <dt className="text-xs font-semibold uppercase tracking-wide text-ink-400">Size</dt>
-            <dd className="num">{screen.fileBytes != null ? `${(screen.fileBytes / 1024).toLocaleString("en-GB", { maximumFractionDigits: 0 })} kB` : "—"}</dd>
+            <dd className="num">{screen.fileBytes != null ? fileSize(screen.fileBytes) : "—"}</dd>
           </div>
           <div>
             <dt className="text-xs font-semibold uppercase tracking-wide text-ink-400">Layout</dt>
@@ -85,4 +85,11 @@ export default async function ImportPage({ params }: { params: Promise<{ id: str
       />
     </div>
   );
+}
+
+/** Bytes for people: exact below 1 kB, then kB and MB with one decimal. */
+function fileSize(bytes: number): string {
+  if (bytes < 1024) return `${bytes} bytes`;
+  const kb = bytes / 1024;
+  return kb < 1024 ? `${kb.toLocaleString("en-GB", { maximumFractionDigits: 1 })} kB` : `${(kb / 1024).toLocaleString("en-GB", { maximumFractionDigits: 1 })} MB`;
 }

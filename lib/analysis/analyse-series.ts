@@ -73,13 +73,20 @@ export interface SessionAnalysisSummary {
   distanceM: number | null;
   findingCounts: Partial<Record<FindingKind, number>>;
   engine: SessionEngineSummary | null;
+  /** Laps and findings, ms. */
   analysisMs: number;
+  /**
+   * The Drive slip, Suspension use, Gears and Rider brief results stored for the default settings
+   * (lib/data/session-analysis.ts): total and compute time (ms), rows and JSON bytes; null when
+   * they could not be computed (the pages then compute on request). Absent before this existed.
+   */
+  pages?: { ms: number; computeMs: number; parts: number; bytes: number } | null;
 }
 
 export interface SeriesAnalysis {
   laps: AnalysedLap[];
   findings: AnalysedFinding[];
-  summary: Omit<SessionAnalysisSummary, "analysedAt" | "trackId" | "analysisMs">;
+  summary: Omit<SessionAnalysisSummary, "analysedAt" | "trackId" | "analysisMs" | "pages">;
 }
 
 /** Share of the rev ceiling above which engine time is counted for the Engine ledger (Lapbench default). */

@@ -1,7 +1,9 @@
 /**
  * Re-analysis from the stored chunks, for when a track's gates or thresholds, or a bike's
  * settings, change. Each session is redone in one transaction: its old laps and findings are
- * replaced, acknowledgements of findings found again are kept (lib/data/session-analysis.ts).
+ * replaced, acknowledgements of findings found again are kept, and the Drive slip, Suspension
+ * use, Gears and Rider brief results stored for the default settings are computed again
+ * (lib/data/session-analysis.ts).
  */
 import type { Sequelize } from "sequelize";
 import { initModels, RideSession } from "@/models";

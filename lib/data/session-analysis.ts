@@ -3,12 +3,18 @@
  * used by the ingest worker right after the samples are written and by re-analysis from the
  * stored chunks. Replaces the session's laps and findings; a person's acknowledgement of a
  * finding and "invalid" mark on a lap carry over to the same event or lap found again.
+ * Then the Drive slip, Suspension use, Gears and Rider brief results for the default settings
+ * are computed and stored (storePageAnalyses), so those pages need not read the samples.
  */
-import { Op, type Sequelize, type Transaction } from "sequelize";
+import { Op, QueryTypes, type Sequelize, type Transaction } from "sequelize";
 import { initModels, Bike, Finding, Lap, RaceEvent, RideSession, Track } from "@/models";
 import type { SeriesLike } from "@/lib/laps/types";
 import { analyseSeries, type SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
+import { analysisBasis, buildAnalysisBase, PAGE_ROLES, seriesView } from "@/lib/analysis/analysis-base";
+import { precomputePageAnalyses } from "@/lib/analysis/page-analyses";
+import { storedJsonStringify } from "@/lib/analysis/stored-json";
 import { guessTrack, trackGatesForAnalysis } from "./tracks";
+import { loadAnalysisInputs } from "./analysis";
 
 /** Same event after a re-analysis: same kind and lap, start within this many seconds. */
 export const SAME_FINDING_WITHIN_S = 0.2;
@@ -116,17 +122,76 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
     );
   }
 
+  const analysisMs = Math.round(performance.now() - t0);
+  if (track && session.trackId !== track.id) await RideSession.update({ trackId: track.id }, { where: { id: sessionId }, transaction: t });
+  const pages = await storePageAnalyses(sequelize, t, sessionId, series);
+
   const summary: SessionAnalysisSummary = {
     ...analysis.summary,
     analysedAt: new Date().toISOString(),
     trackId: track?.id ?? null,
-    analysisMs: Math.round(performance.now() - t0),
+    analysisMs,
+    pages,
   };
   // Merge: the import preview (and anything else kept there) stays.
   const previous = (session.summary ?? {}) as Record<string, unknown>;
-  await RideSession.update(
-    { summary: { ...previous, ...summary }, ...(track && session.trackId !== track.id ? { trackId: track.id } : {}) },
-    { where: { id: sessionId }, transaction: t },
-  );
+  await RideSession.update({ summary: { ...previous, ...summary } }, { where: { id: sessionId }, transaction: t });
   return summary;
+}
+
+/**
+ * Compute the four analysis pages' results with the default settings and store them, one row per
+ * part (session_analysis_parts), replacing the session's earlier parts. The inputs are read back
+ * inside the transaction exactly as the pages read them (lib/data/analysis.ts), and each page's
+ * result is computed on the channels that page loads, so a stored part equals the page's own
+ * computation. A failure here is logged and leaves no parts (the pages then compute on request):
+ * it must not cost the session its laps and findings.
+ */
+async function storePageAnalyses(sequelize: Sequelize, t: Transaction, sessionId: number, series: SeriesLike): Promise<SessionAnalysisSummary["pages"]> {
+  const t0 = performance.now();
+  const old = await sequelize.query<{ part: string }>("SELECT part FROM session_analysis_parts WHERE session_id = ?", { replacements: [sessionId], type: QueryTypes.SELECT, transaction: t });
+  let rows: [string, string][] = [];
+  let basis = "";
+  try {
+    const inputs = await loadAnalysisInputs(sequelize, sessionId, t);
+    basis = analysisBasis(inputs);
+    const tc = performance.now();
+    const slip = buildAnalysisBase(inputs, seriesView(series, PAGE_ROLES.slip));
+    const a = precomputePageAnalyses({
+      slip,
+      suspension: buildAnalysisBase(inputs, seriesView(series, PAGE_ROLES.suspension), slip),
+      gears: buildAnalysisBase(inputs, seriesView(series, PAGE_ROLES.gears), slip),
+      brief: buildAnalysisBase(inputs, seriesView(series, PAGE_ROLES.brief), slip),
+    });
+    const computeMs = performance.now() - tc;
+    rows = [
+      ["slip", storedJsonStringify(a.slip)],
+      ...[...a.slipTraces].map(([lap, trace]): [string, string] => [`slip-trace:${lap}`, storedJsonStringify(trace)]),
+      ["suspension", storedJsonStringify(a.suspension)],
+      ["gears", storedJsonStringify(a.gears)],
+      ["brief", storedJsonStringify(a.brief)],
+    ];
+    // Parts not written again (laps that are gone) are deleted by key, as laps and findings are above.
+    const stale = old.map((r) => r.part).filter((p) => !rows.some(([name]) => name === p));
+    if (stale.length) await deleteParts(sequelize, t, sessionId, stale);
+    // One statement for all parts; ~1 MB for a 30-minute session, far below max_allowed_packet.
+    await sequelize.query(
+      `INSERT INTO session_analysis_parts (session_id, part, basis, data) VALUES ${rows.map(() => "(?, ?, ?, ?)").join(", ")}
+       ON DUPLICATE KEY UPDATE basis = VALUES(basis), data = VALUES(data), created_at = CURRENT_TIMESTAMP(3)`,
+      { replacements: rows.flatMap(([part, data]) => [sessionId, part, basis, data]), type: QueryTypes.INSERT, transaction: t },
+    );
+    return { ms: Math.round(performance.now() - t0), computeMs: Math.round(computeMs), parts: rows.length, bytes: rows.reduce((n, [, d]) => n + Buffer.byteLength(d), 0) };
+  } catch (e) {
+    console.log(`[ingest] session ${sessionId}: page analyses not stored (computed on request instead): ${e instanceof Error ? e.message : String(e)}`);
+    if (old.length) await deleteParts(sequelize, t, sessionId, old.map((r) => r.part));
+    return null;
+  }
+}
+
+async function deleteParts(sequelize: Sequelize, t: Transaction, sessionId: number, parts: string[]): Promise<void> {
+  await sequelize.query(`DELETE FROM session_analysis_parts WHERE session_id = ? AND part IN (${parts.map(() => "?").join(",")})`, {
+    replacements: [sessionId, ...parts],
+    type: QueryTypes.DELETE,
+    transaction: t,
+  });
 }

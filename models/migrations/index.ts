@@ -5,6 +5,7 @@
 import type { QueryInterface } from "sequelize";
 import * as auth from "./0001-auth";
 import * as domain from "./0002-domain";
+import * as storedAnalysis from "./0003-stored-analysis";
 
 export interface Migration {
   name: string;
@@ -15,4 +16,5 @@ export interface Migration {
 export const migrations: Migration[] = [
   { name: "0001-auth", ...auth },
   { name: "0002-domain", ...domain },
+  { name: "0003-stored-analysis", ...storedAnalysis },
 ];

@@ -8,7 +8,8 @@
  *       the first time; later files reuse the Import profile) → a real worker process
  *       (`node --import tsx workers/ingest-worker.ts`) claims the job, parses, writes, analyses →
  *       status "ready". Timed from the enqueue to "ready"; the worker's peak RSS is its VmHWM.
- *   stages: parse / write / analysis timed separately (tests/bench/stage-breakdown.ts).
+ *   stages: parse / write / analysis (laps, findings) / page analyses (slip, suspension, braking,
+ *   gears; computed and stored at ingest) timed separately (tests/bench/stage-breakdown.ts).
  *
  * Every figure is the median of --runs runs (default 3), interleaved a, b, stages per run so the
  * noise of the shared 2-core machine hits them alike. Loopback only; a scratch database
@@ -63,10 +64,15 @@ interface RunFigures {
   jobParseWriteS: number;
   jobWriteTailS: number;
   jobAnalysisS: number;
+  jobPagesS: number;
   jobCommitS: number;
   parseS: number;
   writeS: number;
   analyseS: number;
+  pagesS: number;
+  pagesComputeS: number;
+  pagesKb: number;
+  pageParts: number;
   laps: number;
   findings: number;
   parsePeakMb: number;
@@ -161,11 +167,11 @@ async function fullPath(sequelize: Sequelize, fake: UploadFake, storageDir: stri
     const [{ n }] = await sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM channels WHERE session_id = ?", { replacements: [sessionId], type: QueryTypes.SELECT });
     for (let i = 0; i < 40 && !/ready in \d+ ms/.test(worker.output); i++) await sleep(25);
     const jobMs = Number(/ready in (\d+) ms/.exec(worker.output)?.[1] ?? NaN);
-    // The worker's own stage times: "ready in N ms (open a, parseWrite b, writeTail c, analysis d, commit e ms)".
+    // The worker's own stage times: "ready in N ms (open a, parseWrite b, writeTail c, analysis d, pages e, commit f ms)".
     const stageMs = (name: string) => Number(new RegExp(`ready in \\d+ ms \\([^)]*\\b${name} (\\d+)`).exec(worker.output)?.[1] ?? NaN);
     return {
       sessionId, channels: Number(n), fullS: (tReady - tEnqueue) / 1000, uploadToReadyS: (tReady - tUpload) / 1000, workerPeakMb, workerIdleMb, workerJobS: jobMs / 1000,
-      jobOpenS: stageMs("open") / 1000, jobParseWriteS: stageMs("parseWrite") / 1000, jobWriteTailS: stageMs("writeTail") / 1000, jobAnalysisS: stageMs("analysis") / 1000, jobCommitS: stageMs("commit") / 1000,
+      jobOpenS: stageMs("open") / 1000, jobParseWriteS: stageMs("parseWrite") / 1000, jobWriteTailS: stageMs("writeTail") / 1000, jobAnalysisS: stageMs("analysis") / 1000, jobPagesS: stageMs("pages") / 1000, jobCommitS: stageMs("commit") / 1000,
     };
   } finally {
     await stopWorker(worker);
@@ -211,7 +217,7 @@ async function main(): Promise<void> {
       for (let run = 1; run <= runs; run++) {
         const a = lastJson<{ seconds: number; rows: number; channels: number; peakRssMb: number }>(nodeChild("tests/bench/baseline-parse.ts", [file]).stdout);
         const b = await fullPath(sequelize, fake, storageDir, dbName, file, `bench_${mb}_${run}_${process.pid}`);
-        const st = lastJson<{ parseS: number; writeS: number; analyseS: number; laps: number; findings: number; parsePeakRssMb: number }>(
+        const st = lastJson<{ parseS: number; writeS: number; analyseS: number; pagesS: number; pagesComputeS: number; pagesKb: number; pageParts: number; laps: number; findings: number; parsePeakRssMb: number }>(
           nodeChild("tests/bench/stage-breakdown.ts", [file, String(b.sessionId)], { LAPBENCH_DB_NAME: dbName }).stdout,
         );
         // Keep the scratch database small: 200 MB logs leave ~160 MB of chunks per session.
@@ -220,14 +226,14 @@ async function main(): Promise<void> {
         res.channels = b.channels;
         const r: RunFigures = {
           baselineS: a.seconds, baselinePeakMb: a.peakRssMb, fullS: b.fullS, uploadToReadyS: b.uploadToReadyS, workerPeakMb: b.workerPeakMb, workerIdleMb: b.workerIdleMb, workerJobS: b.workerJobS,
-          jobOpenS: b.jobOpenS, jobParseWriteS: b.jobParseWriteS, jobWriteTailS: b.jobWriteTailS, jobAnalysisS: b.jobAnalysisS, jobCommitS: b.jobCommitS,
-          parseS: st.parseS, writeS: st.writeS, analyseS: st.analyseS, laps: st.laps, findings: st.findings, parsePeakMb: st.parsePeakRssMb,
+          jobOpenS: b.jobOpenS, jobParseWriteS: b.jobParseWriteS, jobWriteTailS: b.jobWriteTailS, jobAnalysisS: b.jobAnalysisS, jobPagesS: b.jobPagesS, jobCommitS: b.jobCommitS,
+          parseS: st.parseS, writeS: st.writeS, analyseS: st.analyseS, pagesS: st.pagesS, pagesComputeS: st.pagesComputeS, pagesKb: st.pagesKb, pageParts: st.pageParts, laps: st.laps, findings: st.findings, parsePeakMb: st.parsePeakRssMb,
         };
         res.runs.push(r);
         console.log(
           `  ${mb} MB run ${run}/${runs}: (a) ${f(r.baselineS)} s  (b) ${f(r.fullS)} s  b/a ${f(r.fullS / r.baselineS)}  worker peak ${f(r.workerPeakMb, 0)} MiB` +
-            `  | parse ${f(r.parseS)} s, write ${f(r.writeS)} s, analysis ${f(r.analyseS, 3)} s` +
-            `  | worker: open ${f(r.jobOpenS)}, parse+write ${f(r.jobParseWriteS)}, write tail ${f(r.jobWriteTailS)}, analysis ${f(r.jobAnalysisS)}, commit ${f(r.jobCommitS)} s`,
+            `  | parse ${f(r.parseS)} s, write ${f(r.writeS)} s, analysis ${f(r.analyseS, 3)} s, pages ${f(r.pagesS, 3)} s` +
+            `  | worker: open ${f(r.jobOpenS)}, parse+write ${f(r.jobParseWriteS)}, write tail ${f(r.jobWriteTailS)}, analysis ${f(r.jobAnalysisS)}, pages ${f(r.jobPagesS)}, commit ${f(r.jobCommitS)} s`,
         );
       }
     }
@@ -259,7 +265,7 @@ async function main(): Promise<void> {
 
     console.log(`\nStages inside the worker's job (same library calls, file from disk, write rolled back; medians of ${runs})\n`);
     printTable(
-      ["file", "parse s", "parse / (a)", "write s", "write MB/s", "analysis s", "laps", "findings", "parse-only peak RSS", "worker idle RSS", "worker's job s", "upload→ready s"],
+      ["file", "parse s", "parse / (a)", "write s", "write MB/s", "analysis s", "pages s", "pages compute s", "pages stored", "laps", "findings", "parse-only peak RSS", "worker idle RSS", "worker's job s", "upload→ready s"],
       results.map((r) => {
         const a = m(r.runs, "baselineS");
         const parse = m(r.runs, "parseS");
@@ -267,17 +273,18 @@ async function main(): Promise<void> {
         // Stored bytes: Float64 time plus the channels (Float32, or Float64 for latitude/longitude).
         const storedMb = (r.rows * (8 + 4 * (r.channels - 1) + 8)) / 1e6;
         return [
-          `${(r.bytes / 1e6).toFixed(1)} MB`, f(parse), f(parse / a), f(write), f(storedMb / write, 0), f(m(r.runs, "analyseS"), 3), f(m(r.runs, "laps"), 0), f(m(r.runs, "findings"), 0),
+          `${(r.bytes / 1e6).toFixed(1)} MB`, f(parse), f(parse / a), f(write), f(storedMb / write, 0), f(m(r.runs, "analyseS"), 3), f(m(r.runs, "pagesS"), 3), f(m(r.runs, "pagesComputeS"), 3),
+          `${f(m(r.runs, "pagesKb"), 0)} kB in ${f(m(r.runs, "pageParts"), 0)} rows`, f(m(r.runs, "laps"), 0), f(m(r.runs, "findings"), 0),
           `${f(m(r.runs, "parsePeakMb"), 0)} MiB`, `${f(m(r.runs, "workerIdleMb"), 0)} MiB`, f(m(r.runs, "workerJobS")), f(m(r.runs, "uploadToReadyS")),
         ];
       }),
     );
     console.log(`\nThe worker's own stages in (b) (its log line; medians of ${runs}): the CSV is parsed and its chunks written at the same time\n`);
     printTable(
-      ["file", "open file s", "parse + write s", "parse+write / (a)", "write tail s", "analysis s", "commit s", "worker's job s"],
+      ["file", "open file s", "parse + write s", "parse+write / (a)", "write tail s", "analysis s", "pages s", "commit s", "worker's job s"],
       results.map((r) => [
         `${(r.bytes / 1e6).toFixed(1)} MB`, f(m(r.runs, "jobOpenS")), f(m(r.runs, "jobParseWriteS")), f(m(r.runs, "jobParseWriteS") / m(r.runs, "baselineS")), f(m(r.runs, "jobWriteTailS")),
-        f(m(r.runs, "jobAnalysisS")), f(m(r.runs, "jobCommitS")), f(m(r.runs, "workerJobS")),
+        f(m(r.runs, "jobAnalysisS")), f(m(r.runs, "jobPagesS")), f(m(r.runs, "jobCommitS")), f(m(r.runs, "workerJobS")),
       ]),
     );
     console.log(

@@ -2,8 +2,11 @@
  * Where the worker's time goes, stage by stage, with the same library calls it makes:
  * parseCsvStream (file read from disk), writeSessionSamples and analyseAndStore in one transaction
  * that is rolled back, on a scratch copy of a ready session (so its rows stay untouched).
+ * analyseAndStore is split as the worker logs it: laps + findings (analyseS), then the Drive slip,
+ * Suspension use, Gears and Rider brief results computed and stored (pagesS; pagesComputeS of it
+ * is the computation alone, pagesKb and pageParts what was stored).
  * Run as its own process so the peak RSS after the parse is the parse's own.
- * Prints one JSON line: { parseS, writeS, analyseS, laps, findings, parsePeakRssMb, peakRssMb }.
+ * Prints one JSON line: { parseS, writeS, analyseS, pagesS, pagesComputeS, pagesKb, pageParts, laps, findings, parsePeakRssMb, peakRssMb }.
  *
  *   LAPBENCH_DB_NAME=… node --import tsx tests/bench/stage-breakdown.ts <file.csv> <readySessionId>
  */
@@ -39,6 +42,10 @@ async function main(): Promise<void> {
     const tx = await sequelize.transaction();
     let writeS = NaN;
     let analyseS = NaN;
+    let pagesS = NaN;
+    let pagesComputeS = NaN;
+    let pagesKb = NaN;
+    let pageParts = 0;
     let laps = 0;
     let findings = 0;
     try {
@@ -46,8 +53,14 @@ async function main(): Promise<void> {
       await writeSessionSamples(sequelize, tx, scratch.id, parsed);
       writeS = (performance.now() - t) / 1000;
       t = performance.now();
-      await analyseAndStore(sequelize, tx, scratch, parsed);
-      analyseS = (performance.now() - t) / 1000;
+      const summary = await analyseAndStore(sequelize, tx, scratch, parsed);
+      const totalS = (performance.now() - t) / 1000;
+      if (!summary.pages) throw new Error("the page analyses were not stored (see the log line above)");
+      pagesS = summary.pages.ms / 1000;
+      pagesComputeS = summary.pages.computeMs / 1000;
+      pagesKb = summary.pages.bytes / 1024;
+      pageParts = summary.pages.parts;
+      analyseS = totalS - pagesS;
       const count = async (table: "laps" | "findings") =>
         (await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM ${table} WHERE session_id = ?`, { replacements: [scratch.id], type: QueryTypes.SELECT, transaction: tx }))[0].n;
       laps = Number(await count("laps"));
@@ -55,7 +68,7 @@ async function main(): Promise<void> {
     } finally {
       await tx.rollback();
     }
-    console.log(JSON.stringify({ parseS, writeS, analyseS, laps, findings, parsePeakRssMb, peakRssMb: procStatusMb(process.pid, "VmHWM") }));
+    console.log(JSON.stringify({ parseS, writeS, analyseS, pagesS, pagesComputeS, pagesKb, pageParts, laps, findings, parsePeakRssMb, peakRssMb: procStatusMb(process.pid, "VmHWM") }));
   } finally {
     await scratch.destroy();
     await sequelize.close();

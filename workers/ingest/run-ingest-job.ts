@@ -30,7 +30,10 @@ export interface IngestTimings {
   parseWriteMs?: number;
   /** From the end of the parse to the last chunk written and the channel rows updated. */
   writeTailMs?: number;
+  /** Laps, findings and the session marked ready (the page analyses are not in it). */
   analysisMs?: number;
+  /** Drive slip, Suspension use, Gears and Rider brief computed and stored (lib/data/session-analysis.ts). */
+  pagesMs?: number;
   commitMs?: number;
 }
 
@@ -108,7 +111,7 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
       await new Promise((r) => setTimeout(r, pauseMs));
     }
     const ta = performance.now();
-    await analyseAndStore(sequelize, t, session!, parsed);
+    const summary = await analyseAndStore(sequelize, t, session!, parsed);
     const startedAt = sessionStartTime(parsed.metadata);
     const durationS = parsed.rows > 1 ? parsed.timeS[parsed.rows - 1] - parsed.timeS[0] : 0;
     await RideSession.update(
@@ -121,7 +124,9 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
       },
       { where: { id: sessionId }, transaction: t },
     );
-    timings.analysisMs = performance.now() - ta;
+    const pagesMs = summary.pages?.ms ?? 0;
+    timings.analysisMs = performance.now() - ta - pagesMs;
+    timings.pagesMs = pagesMs;
   }
 
   try {

@@ -3,7 +3,7 @@ import "server-only";
 import { Op } from "sequelize";
 import { initModels, RaceEvent, Rider, Bike, RideSession } from "@/models";
 import type { TeamContext } from "@/lib/auth/guard";
-import { sessionVisibility, type SessionListItem } from "./sessions";
+import { sessionVisibility, toSessionListItem, type SessionListItem } from "./sessions";
 
 export interface SessionFilter {
   eventId?: number | null;
@@ -35,21 +35,8 @@ export async function listSessions(ctx: TeamContext, filter: SessionFilter = {})
     Rider.findAll({ where: { teamId: ctx.teamId }, order: [["name", "ASC"]], attributes: ["id", "name"] }),
     Bike.findAll({ where: { teamId: ctx.teamId }, attributes: ["id", "name"] }),
   ]);
-  const name = (list: { id: number; name: string }[], id: number | null) => (id == null ? null : (list.find((x) => x.id === id)?.name ?? null));
   return {
-    sessions: rows.map((r) => ({
-      id: r.id,
-      title: r.title ?? `Session ${r.id}`,
-      kind: r.kind,
-      status: r.status,
-      progress: r.progress,
-      statusReason: r.statusReason,
-      startedAt: r.startedAt ? r.startedAt.toISOString() : null,
-      createdAt: r.createdAt.toISOString(),
-      riderName: name(riders, r.riderId),
-      bikeName: name(bikes, r.bikeId),
-      eventName: name(events, r.eventId),
-    })),
+    sessions: rows.map((r) => toSessionListItem(r, { riders, bikes, events })),
     events: events.map((e) => ({ id: e.id, name: e.name })),
     riders: riders.map((r) => ({ id: r.id, name: r.name })),
   };

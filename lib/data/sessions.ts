@@ -52,8 +52,16 @@ export async function listRecentSessions(ctx: TeamContext, limit = 20): Promise<
     bikeIds.length ? Bike.findAll({ where: { id: { [Op.in]: bikeIds } } }) : [],
     eventIds.length ? RaceEvent.findAll({ where: { id: { [Op.in]: eventIds } } }) : [],
   ]);
-  const name = <T extends { id: number; name: string }>(list: T[], id: number | null) => list.find((x) => x.id === id)?.name ?? null;
-  return rows.map((r) => ({
+  return rows.map((r) => toSessionListItem(r, { riders, bikes, events }));
+}
+
+/** One session row as a list item, with the names of its rider, bike and event from lists already read. */
+export function toSessionListItem(
+  r: RideSession,
+  names: { riders: { id: number; name: string }[]; bikes: { id: number; name: string }[]; events: { id: number; name: string }[] },
+): SessionListItem {
+  const name = (list: { id: number; name: string }[], id: number | null) => (id == null ? null : (list.find((x) => x.id === id)?.name ?? null));
+  return {
     id: r.id,
     title: r.title ?? `Session ${r.id}`,
     kind: r.kind,
@@ -62,8 +70,8 @@ export async function listRecentSessions(ctx: TeamContext, limit = 20): Promise<
     statusReason: r.statusReason,
     startedAt: r.startedAt ? r.startedAt.toISOString() : null,
     createdAt: r.createdAt.toISOString(),
-    riderName: name(riders, r.riderId),
-    bikeName: name(bikes, r.bikeId),
-    eventName: name(events, r.eventId),
-  }));
+    riderName: name(names.riders, r.riderId),
+    bikeName: name(names.bikes, r.bikeId),
+    eventName: name(names.events, r.eventId),
+  };
 }

@@ -14,6 +14,10 @@ import { DetailsEditor } from "@/components/session/details-editor";
 import { SessionLaps } from "@/components/session/session-laps";
 import { SessionFindings } from "@/components/session/session-findings";
 import { SessionAnalysisLinks } from "@/components/session/session-analysis-links";
+import { getSetupSheetView } from "@/lib/data/setup-sheets";
+import { getSessionNotes } from "@/lib/data/session-notes";
+import { SetupSheet } from "@/components/session/setup-sheet";
+import { SessionNotes } from "@/components/session/session-notes";
 
 export const metadata: Metadata = { title: "Session" };
 
@@ -35,6 +39,8 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
   const canEdit = roleCan(ctx.role, { "session-data": ["upload"] });
   const canAcknowledge = roleCan(ctx.role, { finding: ["acknowledge"] });
   const options = canEdit ? await sessionFormOptions(ctx.teamId) : null;
+  // Both apply whatever the import status: a setup is recorded and notes are written before a log is read.
+  const [setup, notes] = await Promise.all([getSetupSheetView(ctx, sessionId), getSessionNotes(ctx, sessionId)]);
   const s = o.session;
   const ready = s.status === "ready";
 
@@ -76,6 +82,9 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
           }}
         />
       )}
+
+      <SetupSheet view={setup} />
+      <SessionNotes view={notes} />
     </div>
   );
 }

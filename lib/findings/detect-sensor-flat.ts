@@ -20,41 +20,46 @@ const WATCHED: ReadonlyArray<[Exclude<ChannelRole, "time" | "other">, number]> =
   ["accel_lat", 0.001],
 ];
 
+/** The finding for a flat stretch start…end of `role` (held at `lo`), or null when it was too short. */
+function flatFinding(dc: DetectorContext, role: Exclude<ChannelRole, "time" | "other">, start: number, end: number, lo: number, minS: number): Finding | null {
+  const t = dc.series.timeS;
+  if (!(t[end] - t[start] >= minS)) return null;
+  return makeFinding(dc, start, end, {
+    kind: "sensor_flat",
+    severity: "warning",
+    measuredValue: t[end] - t[start],
+    thresholdValue: minS,
+    unit: "s",
+    channel: role,
+    message: `${ROLE_LABEL[role]} held ${Number(lo.toPrecision(4))} for ${(t[end] - t[start]).toFixed(1)} s while moving${onLap(dc, start)}: sensor or wiring may be stuck.`,
+  });
+}
+
 /** A channel stuck on one value while the bike moves faster than the set speed for longer than the set time. */
 export function detectSensorFlat(dc: DetectorContext): Finding[] {
   const v = dc.groundSpeedMs;
   if (!v) return [];
   const t = dc.series.timeS;
   const n = t.length;
+  const minSpeedMs = dc.th.sensorFlatMinSpeedMs;
   const out: Finding[] = [];
   for (const [role, tol] of WATCHED) {
     const x = dc.series.channels[role];
     if (!x) continue;
     const minS = role === "throttle" ? dc.th.throttleFlatMinDurationS : dc.th.sensorFlatMinDurationS;
+    // The run's state lives in plain locals, not in a closure: captured variables are kept in a
+    // heap context (a boxed number per write), which made this the slowest detector by far.
     let start = -1;
     let lo = 0;
     let hi = 0;
-    const close = (end: number) => {
-      if (start >= 0 && t[end] - t[start] >= minS) {
-        out.push(
-          makeFinding(dc, start, end, {
-            kind: "sensor_flat",
-            severity: "warning",
-            measuredValue: t[end] - t[start],
-            thresholdValue: minS,
-            unit: "s",
-            channel: role,
-            message: `${ROLE_LABEL[role]} held ${Number(lo.toPrecision(4))} for ${(t[end] - t[start]).toFixed(1)} s while moving${onLap(dc, start)}: sensor or wiring may be stuck.`,
-          }),
-        );
-      }
-      start = -1;
-    };
     for (let i = 0; i < n; i++) {
       const xi = x[i];
-      const moving = v[i] > dc.th.sensorFlatMinSpeedMs;
-      if (!moving || !Number.isFinite(xi)) {
-        close(i - 1 >= 0 ? i - 1 : 0);
+      if (!(v[i] > minSpeedMs) || !Number.isFinite(xi)) {
+        if (start >= 0) {
+          const f = flatFinding(dc, role, start, i - 1 >= 0 ? i - 1 : 0, lo, minS);
+          if (f) out.push(f);
+          start = -1;
+        }
         continue;
       }
       if (start >= 0) {
@@ -65,12 +70,16 @@ export function detectSensorFlat(dc: DetectorContext): Finding[] {
           hi = nhi;
           continue;
         }
-        close(i - 1);
+        const f = flatFinding(dc, role, start, i - 1, lo, minS);
+        if (f) out.push(f);
       }
       start = i;
       lo = hi = xi;
     }
-    close(n - 1);
+    if (start >= 0) {
+      const f = flatFinding(dc, role, start, n - 1, lo, minS);
+      if (f) out.push(f);
+    }
   }
   return out;
 }

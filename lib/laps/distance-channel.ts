@@ -96,12 +96,12 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
   const lapStartDistanceM = new Float64Array(nLaps);
   const lapLengthM = new Float64Array(nLaps);
   const lapScale = new Float64Array(nLaps).fill(1);
-  const distanceM = new Float64Array(n);
 
   let hasWheel = false;
   if (wheel) for (let i = 0; i < n && !hasWheel; i++) hasWheel = Number.isFinite(wheel[i]);
 
   if (!hasWheel) {
+    const distanceM = new Float64Array(n);
     if (nf === 0) return { distanceM, lapStartDistanceM, lapLengthM, lapScale, source: "none" };
     // Walk the fixes alongside the clock: both ascend, so no search per sample.
     let k = 0;
@@ -123,9 +123,16 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
   }
 
   const w = integrateSpeed(t, wheel!);
-  const wheelAt = (time: number) => interpAt(t, w, time);
+  // The wheel distance at every lap start and end, read before the loop below turns `w` into
+  // the session distance in place (one session-length array fewer).
+  const wheelStart = new Float64Array(nLaps);
+  const wheelEnd = new Float64Array(nLaps);
   for (let l = 0; l < nLaps; l++) {
-    const wheelLen = wheelAt(laps[l].endTimeS) - wheelAt(laps[l].startTimeS);
+    wheelStart[l] = interpAt(t, w, laps[l].startTimeS);
+    wheelEnd[l] = interpAt(t, w, laps[l].endTimeS);
+  }
+  for (let l = 0; l < nLaps; l++) {
+    const wheelLen = wheelEnd[l] - wheelStart[l];
     const gpsLen = nf > 1 ? gpsAt(laps[l].endTimeS) - gpsAt(laps[l].startTimeS) : NaN;
     // Rescale only when both lengths are real distances (a lap spent parked has neither).
     if (wheelLen > 1 && gpsLen > 1) lapScale[l] = gpsLen / wheelLen;
@@ -139,33 +146,31 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
   let scale = 1;
   let lap = 0;
   let atStart = true; // next event is laps[lap].startTimeS, else its endTimeS
-  const moveAnchor = (time: number, newScale: number) => {
-    const wt = wheelAt(time);
-    anchorD += scale * (wt - anchorW);
-    anchorW = wt;
-    scale = newScale;
-  };
   for (let i = 0; i < n; i++) {
     const ti = t[i];
     while (lap < nLaps) {
       const ev = atStart ? laps[lap].startTimeS : laps[lap].endTimeS;
       if (ev > ti) break;
+      const wt = atStart ? wheelStart[lap] : wheelEnd[lap];
+      anchorD += scale * (wt - anchorW);
+      anchorW = wt;
       if (atStart) {
-        moveAnchor(ev, lapScale[lap]);
+        scale = lapScale[lap];
         lapStartDistanceM[lap] = anchorD;
         atStart = false;
       } else {
-        moveAnchor(ev, 1);
+        scale = 1;
         lap++;
         atStart = true;
       }
     }
-    distanceM[i] = anchorD + scale * (w[i] - anchorW);
+    // In place: w[i] is read here for the last time.
+    w[i] = anchorD + scale * (w[i] - anchorW);
   }
   // Laps starting after the last sample (should not happen) still get an offset.
   for (; lap < nLaps; lap++) {
-    if (atStart) lapStartDistanceM[lap] = anchorD + scale * (wheelAt(laps[lap].startTimeS) - anchorW);
+    if (atStart) lapStartDistanceM[lap] = anchorD + scale * (wheelStart[lap] - anchorW);
     atStart = true;
   }
-  return { distanceM, lapStartDistanceM, lapLengthM, lapScale, source: "speed_front" };
+  return { distanceM: w, lapStartDistanceM, lapLengthM, lapScale, source: "speed_front" };
 }

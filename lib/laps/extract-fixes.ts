@@ -32,14 +32,18 @@ export function extractFixes(series: SeriesLike): SeriesFixes {
     speedMs: new Float64Array(n),
   };
   if (!lat || !lon) return out;
+  // The output arrays as locals: the loop runs once per sample of the session.
+  const { timeS, latDeg, lonDeg, sampleIndex, speedMs } = out;
   let k = 0;
   for (let i = 0; i < t.length; i++) {
-    if (!Number.isFinite(lat[i]) || !Number.isFinite(lon[i])) continue;
-    out.timeS[k] = t[i];
-    out.latDeg[k] = lat[i];
-    out.lonDeg[k] = lon[i];
-    out.sampleIndex[k] = i;
-    out.speedMs[k] = spd ? spd[i] : NaN;
+    const la = lat[i];
+    const lo = lon[i];
+    if (!Number.isFinite(la) || !Number.isFinite(lo)) continue;
+    timeS[k] = t[i];
+    latDeg[k] = la;
+    lonDeg[k] = lo;
+    sampleIndex[k] = i;
+    speedMs[k] = spd ? spd[i] : NaN;
     k++;
   }
   return out;

@@ -45,7 +45,9 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
   if (!front || !rear) return { ratio: 1, sampleCount: 0, applied: false };
 
   const n = t.length;
-  const ratios = new Float64Array(n);
+  // Only steady straight running qualifies, a fraction of the session: the buffer grows as
+  // needed instead of holding one double per sample of the whole log.
+  let ratios = new Float64Array(Math.min(n, 65536));
   let count = 0;
   let lo = 0;
   let hi = 0;
@@ -63,6 +65,11 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
     if (throttle) {
       const th = throttle[i];
       if (!(Math.abs(throttle[lo] - th) <= maxThrottleChangePct && Math.abs(throttle[hi] - th) <= maxThrottleChangePct)) continue;
+    }
+    if (count === ratios.length) {
+      const grown = new Float64Array(Math.min(n, 2 * ratios.length));
+      grown.set(ratios);
+      ratios = grown;
     }
     ratios[count++] = vr / vf;
   }

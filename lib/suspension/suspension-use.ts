@@ -60,7 +60,7 @@ export interface SuspensionUse {
   bottoming: { count: number; events: BottomingEvent[] };
 }
 
-function median(values: Float64Array, count: number): number {
+function median(values: Float32Array | Float64Array, count: number): number {
   const s = values.subarray(0, count).sort();
   const mid = count >> 1;
   return count % 2 ? s[mid] : 0.5 * (s[mid - 1] + s[mid]);
@@ -118,8 +118,17 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
   let stoppedM: number | null = null;
   const speed = opts.speedMs;
   if (speed) {
-    const steady = new Float64Array(n);
-    const stopped = new Float64Array(n);
+    // The sag samples are travel samples as they are (Float32 from the channel): buffers of the
+    // same type hold them exactly, and grow as needed instead of two doubles per sample of the
+    // whole record (only steady running and standing still qualify).
+    const Buf = travelM instanceof Float32Array ? Float32Array : Float64Array;
+    let steady: Float32Array | Float64Array = new Buf(Math.min(n, 4096));
+    let stopped: Float32Array | Float64Array = new Buf(Math.min(n, 4096));
+    const grow = (a: Float32Array | Float64Array): Float32Array | Float64Array => {
+      const b = new Buf(Math.min(n, 2 * a.length));
+      b.set(a);
+      return b;
+    };
     let ns = 0, nz = 0;
     const half = Math.max(1, Math.round(0.25 / dtS));
     const lean = opts.leanDeg;
@@ -128,13 +137,17 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
       const v = speed[i];
       if (!Number.isFinite(x) || !Number.isFinite(v)) continue;
       if (v < 0.5) {
+        if (nz === stopped.length) stopped = grow(stopped);
         stopped[nz++] = x;
         continue;
       }
       if (v <= 10 || i < half || i + half >= n) continue;
       if (lean && !(Math.abs(lean[i]) < 5)) continue;
       const accel = (speed[i + half] - speed[i - half]) / (timeS[i + half] - timeS[i - half]);
-      if (Math.abs(accel) < 0.5) steady[ns++] = x;
+      if (Math.abs(accel) < 0.5) {
+        if (ns === steady.length) steady = grow(steady);
+        steady[ns++] = x;
+      }
     }
     const minCount = Math.ceil(1 / dtS);
     if (ns >= minCount) steadySpeedM = median(steady, ns);

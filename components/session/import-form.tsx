@@ -4,6 +4,7 @@
  * column, with the suggestion's confidence). Checked in the browser with the same zod schema the
  * server action uses; the server's per-field errors land on the same fields.
  */
+import type { ImportScreenColumn } from "@/lib/data/session-details";
 import { useState, useTransition } from "react";
 import { FormProvider, useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
@@ -13,19 +14,8 @@ import { importFormSchema, TIME_FORMATS, TIME_FORMAT_LABEL, type ImportFormInput
 import { confirmImportAction } from "@/lib/actions/imports";
 import { SessionDetailsFields, FieldError, toLocalInput, type DetailOptions } from "./session-details-fields";
 
-export interface MappingColumnView {
-  index: number;
-  header: string;
-  name: string;
-  fileUnit: string;
-  samples: string[];
-  role: string;
-  unit: string;
-  scale: number;
-  offset: number;
-  confidence: number | null;
-  reason: string | null;
-}
+// The server's shape of a column on the import screen (a type-only import: nothing server-side is bundled).
+export type MappingColumnView = ImportScreenColumn;
 
 export interface ImportFormProps {
   sessionId: number;

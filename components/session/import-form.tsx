@@ -4,7 +4,7 @@
  * column, with the suggestion's confidence). Checked in the browser with the same zod schema the
  * server action uses; the server's per-field errors land on the same fields.
  */
-import type { ImportScreenColumn } from "@/lib/data/session-details";
+import type { ImportScreenColumn, SessionDetailsView } from "@/lib/data/session-details";
 import { useState, useTransition } from "react";
 import { FormProvider, useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
@@ -22,17 +22,7 @@ export interface ImportFormProps {
   columns: MappingColumnView[];
   timeFormat: ImportFormInput["timeFormat"];
   profileName: string;
-  details: {
-    title: string;
-    kind: string;
-    eventId: number | null;
-    bikeId: number | null;
-    engineId: number | null;
-    riderId: number | null;
-    startedAt: string | null;
-    conditions: string;
-    sharedWithRiders: boolean;
-  };
+  details: SessionDetailsView;
   options: DetailOptions;
 }
 

@@ -135,6 +135,19 @@ export async function reimportSession(sequelize: Sequelize, ctx: Caller, session
   return { status: after.status };
 }
 
+/** A session's editable details as the forms show them (dates as ISO strings). */
+export interface SessionDetailsView {
+  title: string;
+  kind: string;
+  eventId: number | null;
+  bikeId: number | null;
+  engineId: number | null;
+  riderId: number | null;
+  startedAt: string | null;
+  conditions: string;
+  sharedWithRiders: boolean;
+}
+
 export interface ImportScreenColumn {
   index: number;
   header: string;
@@ -164,17 +177,7 @@ export interface ImportScreen {
   timeConfidence: number | null;
   columns: ImportScreenColumn[];
   profileName: string;
-  details: {
-    title: string;
-    kind: string;
-    eventId: number | null;
-    bikeId: number | null;
-    engineId: number | null;
-    riderId: number | null;
-    startedAt: string | null;
-    conditions: string;
-    sharedWithRiders: boolean;
-  };
+  details: SessionDetailsView;
 }
 
 /** Everything the import screen shows, as plain data; 404 outside the team, 403 without upload permission. */

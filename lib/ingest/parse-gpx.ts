@@ -1,7 +1,6 @@
 import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { getPreciseDistance } from "geolib";
-import { ROLE_LABEL, ROLE_SI_UNIT } from "@/lib/channels/roles";
-import { channelFromValues } from "./channel-from-values";
+import { gpsFixSeries } from "./gps-fix-series";
 import { ISO_8601_DATE_TIME } from "./detect-time-format";
 import { IngestError, quoteForMessage } from "./ingest-error";
 import { formatBytes, LIMITS, type IngestLimits } from "./limits";
@@ -148,20 +147,13 @@ export function parseGpx(input: string | Buffer, options: ParseGpxOptions = {}):
   }
   const n = points.length;
   const t0 = points[0].ms;
-  const timeS = new Float64Array(n);
-  const lat = new Float64Array(n); // FLOAT64_ROLES: positions keep sub-centimetre precision
-  const lon = new Float64Array(n);
-  const alt = new Float32Array(n);
-  const speed = new Float32Array(n);
-  for (let i = 0; i < n; i++) {
-    const p = points[i];
-    timeS[i] = (p.ms - t0) / 1000;
-    lat[i] = p.lat;
-    lon[i] = p.lon;
-    alt[i] = p.ele;
-  }
-  if (everyPointHasSpeed) for (let i = 0; i < n; i++) speed[i] = points[i].speed;
-  else deriveSpeed(points, speed);
+  const { timeS, channels } = gpsFixSeries(
+    points.map((p) => ({ ms: p.ms, lat: p.lat, lon: p.lon, altM: p.ele })),
+    (speed) => {
+      if (everyPointHasSpeed) for (let i = 0; i < n; i++) speed[i] = points[i].speed;
+      else deriveSpeed(points, speed);
+    },
+  );
   const metadata: Record<string, string> = {
     source_format: "gpx",
     time_format: "iso8601",
@@ -170,12 +162,6 @@ export function parseGpx(input: string | Buffer, options: ParseGpxOptions = {}):
   };
   const creator = (gpx as Record<string, unknown>)["@_creator"];
   if (typeof creator === "string") metadata.creator = creator.slice(0, 200);
-  const channels = [
-    channelFromValues(ROLE_LABEL.gps_lat, "gps_lat", ROLE_SI_UNIT.gps_lat, lat),
-    channelFromValues(ROLE_LABEL.gps_lon, "gps_lon", ROLE_SI_UNIT.gps_lon, lon),
-    channelFromValues(ROLE_LABEL.gps_speed, "gps_speed", ROLE_SI_UNIT.gps_speed, speed),
-    channelFromValues(ROLE_LABEL.gps_alt, "gps_alt", ROLE_SI_UNIT.gps_alt, alt),
-  ].filter((c) => c.sampleCount > 0);
   return { timeS, channels, metadata, rows: n };
 }
 

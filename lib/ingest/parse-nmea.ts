@@ -1,6 +1,5 @@
 import { parseUnsafeNmeaSentence, type GGAPacket, type RMCPacket } from "nmea-simple";
-import { ROLE_LABEL, ROLE_SI_UNIT } from "@/lib/channels/roles";
-import { channelFromValues } from "./channel-from-values";
+import { gpsFixSeries } from "./gps-fix-series";
 import { decodeTextStream, type DecodeProgress } from "./decode-text-stream";
 import { IngestError } from "./ingest-error";
 import { LIMITS, type IngestLimits } from "./limits";
@@ -222,19 +221,12 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
 
   const n = epochs.length;
   const t0 = epochs[0].absMs;
-  const timeS = new Float64Array(n);
-  const lat = new Float64Array(n); // FLOAT64_ROLES: positions keep sub-centimetre precision
-  const lon = new Float64Array(n);
-  const speed = new Float32Array(n);
-  const alt = new Float32Array(n);
-  for (let i = 0; i < n; i++) {
-    const e = epochs[i];
-    timeS[i] = (e.absMs - t0) / 1000;
-    lat[i] = e.lat;
-    lon[i] = e.lon;
-    speed[i] = e.speedMps;
-    alt[i] = e.altM;
-  }
+  const { timeS, channels } = gpsFixSeries(
+    epochs.map((e) => ({ ms: e.absMs, lat: e.lat, lon: e.lon, altM: e.altM })),
+    (speed) => {
+      for (let i = 0; i < n; i++) speed[i] = epochs[i].speedMps;
+    },
+  );
   const metadata: Record<string, string> = {
     source_format: "nmea",
     time_format: "nmea-utc",
@@ -247,12 +239,6 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
   if (nonNmeaLines) metadata.nmea_other_lines = String(nonNmeaLines);
   if (hasDate) metadata.start_time_iso = new Date(t0).toISOString();
   else metadata.start_time_of_day_utc = formatTod(epochs[0].todMs);
-  const channels = [
-    channelFromValues(ROLE_LABEL.gps_lat, "gps_lat", ROLE_SI_UNIT.gps_lat, lat),
-    channelFromValues(ROLE_LABEL.gps_lon, "gps_lon", ROLE_SI_UNIT.gps_lon, lon),
-    channelFromValues(ROLE_LABEL.gps_speed, "gps_speed", ROLE_SI_UNIT.gps_speed, speed),
-    channelFromValues(ROLE_LABEL.gps_alt, "gps_alt", ROLE_SI_UNIT.gps_alt, alt),
-  ].filter((c) => c.sampleCount > 0);
   options.onProgress?.({ bytesRead: progress.bytesRead, rows: n });
   return { timeS, channels, metadata, rows: n };
 }

@@ -310,7 +310,6 @@ export function generateSession(partial: Partial<SessionOptions> = {}): Generate
   if (!Number.isInteger(gpsEvery) || gpsEvery < 1) throw new Error(`GPS rate ${opts.gpsRateHz} Hz must divide the sample rate ${fs} Hz`);
   const L = TRACK_LENGTH_M;
   const N = opts.flyingLaps;
-  const pit = CIRCUIT.pitLane;
   const rider = opts.rider;
 
   // ---- path and speed profile ----------------------------------------------------------------

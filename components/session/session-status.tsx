@@ -50,7 +50,7 @@ export function SessionStatus({ initial, canEdit }: { initial: Status; canEdit: 
     return (
       <div className="rounded-lg border border-signal-500/50 bg-signal-500/5 p-4" data-testid="session-status" data-status="mapping">
         <p className="font-semibold text-signal-400">{WORDS.mapping}</p>
-        <p className="mt-1 text-sm text-ink-300">This CSV's columns have not been mapped in this team before.</p>
+        <p className="mt-1 text-sm text-ink-300">This CSV&apos;s columns have not been mapped in this team before.</p>
         {canEdit ? (
           <Link href={`/sessions/${s.id}/import`} className="btn-primary mt-3">Map the columns</Link>
         ) : (

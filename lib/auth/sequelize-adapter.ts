@@ -14,6 +14,8 @@ import { createAdapterFactory, type AdapterFactoryOptions, type CleanedWhere, ty
 import { getAuthTables, type BetterAuthDBSchema, type DBFieldAttribute } from "@better-auth/core/db";
 import type { BetterAuthOptions } from "@better-auth/core";
 
+// Rows are whatever better-auth's schema declares; the factory types them for its callers.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 type Row = Record<string, any>;
 type AuthModel = ModelStatic<Model<Row, Row>>;
 
@@ -204,11 +206,11 @@ export function sequelizeAdapter(sequelize: Sequelize, adapterConfig: SequelizeA
       async create({ model: name, modelKey = name, data }) {
         const created = await model(name).create(data, { transaction: trx });
         const id = (data as Row)[idOf(modelKey)] ?? created.get(idOf(modelKey));
-        return (await byId(name, modelKey, id, trx)) as any;
+        return (await byId(name, modelKey, id, trx)) as never;
       },
       async findOne({ model: name, modelKey = name, where, select, join }) {
         const row = (await model(name).findOne({ where: whereClause(where), attributes: attributesFor(modelKey, select), transaction: trx, raw: true })) as Row | null;
-        return row ? ((await attachJoins([row], join))[0] as any) : null;
+        return row ? ((await attachJoins([row], join))[0] as never) : null;
       },
       async findMany({ model: name, modelKey = name, where, limit, offset, sortBy, select, join }) {
         const rows = (await model(name).findAll({
@@ -220,7 +222,7 @@ export function sequelizeAdapter(sequelize: Sequelize, adapterConfig: SequelizeA
           transaction: trx,
           raw: true,
         })) as Row[];
-        return (await attachJoins(rows, join)) as any[];
+        return (await attachJoins(rows, join)) as never[];
       },
       async count({ model: name, where }) {
         return model(name).count({ where: whereClause(where), transaction: trx });
@@ -231,7 +233,7 @@ export function sequelizeAdapter(sequelize: Sequelize, adapterConfig: SequelizeA
           if (!target) return null;
           const id = target[idOf(modelKey)];
           await model(name).update(update as Row, { where: { [idOf(modelKey)]: id }, transaction: t });
-          return (await byId(name, modelKey, (update as Row)[idOf(modelKey)] ?? id, t)) as any;
+          return (await byId(name, modelKey, (update as Row)[idOf(modelKey)] ?? id, t)) as never;
         });
       },
       async updateMany({ model: name, where, update }) {
@@ -250,7 +252,7 @@ export function sequelizeAdapter(sequelize: Sequelize, adapterConfig: SequelizeA
           if (!target) return null;
           const row = await byId(name, modelKey, target[idOf(modelKey)], t);
           const removed = await model(name).destroy({ where: { [idOf(modelKey)]: target[idOf(modelKey)] }, transaction: t });
-          return (removed === 1 ? row : null) as any;
+          return (removed === 1 ? row : null) as never;
         });
       },
       async incrementOne({ model: name, modelKey = name, where, increment, set }) {
@@ -261,7 +263,7 @@ export function sequelizeAdapter(sequelize: Sequelize, adapterConfig: SequelizeA
           const values: Row = { ...(set ?? {}) };
           for (const [column, delta] of Object.entries(increment)) values[column] = Sequelize.literal(`${qi(column)} + ${Number(delta)}`);
           await model(name).update(values, { where: { [idOf(modelKey)]: target[idOf(modelKey)] }, transaction: t });
-          return (await byId(name, modelKey, target[idOf(modelKey)], t)) as any;
+          return (await byId(name, modelKey, target[idOf(modelKey)], t)) as never;
         });
       },
     };

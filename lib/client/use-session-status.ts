@@ -1,5 +1,6 @@
 "use client";
 /** A session's import status from GET /api/sessions/:id, polled while it is still being read. */
+import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import { queryKeys } from "./query-keys";
 
@@ -25,11 +26,13 @@ async function fetchSessionStatus(id: number): Promise<SessionStatus> {
 }
 
 export function useSessionStatus(id: number, initial?: SessionStatus) {
+  // The server read the initial status just now; stamp it once, not on every render.
+  const [initialAt] = useState(() => (initial ? Date.now() : undefined));
   return useQuery({
     queryKey: queryKeys.session(id),
     queryFn: () => fetchSessionStatus(id),
     initialData: initial,
-    initialDataUpdatedAt: initial ? Date.now() : undefined,
+    initialDataUpdatedAt: initialAt,
     refetchInterval: (q) => (q.state.data && SETTLED_STATUSES.has(q.state.data.status) ? false : POLL_MS),
     // Keep polling in a background tab: the engineer switches to the next bike's data meanwhile.
     refetchIntervalInBackground: true,

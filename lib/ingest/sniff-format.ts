@@ -62,7 +62,10 @@ export function sniffFormat(firstBytes: Buffer, fileName: string, isWholeFile = 
     let nulsAtOdd = 0;
     let nulsAtEven = 0;
     const probe = Math.min(firstBytes.length, 512);
-    for (let i = 0; i < probe; i++) if (firstBytes[i] === 0) (i % 2 ? nulsAtOdd++ : nulsAtEven++);
+    for (let i = 0; i < probe; i++) if (firstBytes[i] === 0) {
+      if (i % 2) nulsAtOdd++;
+      else nulsAtEven++;
+    }
     if (Math.max(nulsAtOdd, nulsAtEven) > probe * 0.4 && Math.min(nulsAtOdd, nulsAtEven) < probe * 0.05) {
       return { format: "rejected", code: "NOT_UTF8", reason: `"${fileName}" looks like UTF-16 text without a byte-order mark (every other byte is zero), not UTF-8. Save it as UTF-8.` };
     }

@@ -3,7 +3,7 @@
  * into the small plain objects the pages render. Pure (no database): lib/data/analysis.ts calls
  * these on request, precomputePageAnalyses (ingest) with the default settings for every lap.
  */
-import type { Lap, SeriesLike } from "@/lib/laps/types";
+import type { Lap } from "@/lib/laps/types";
 import { isFlyingLap } from "@/lib/laps/types";
 import { lowerBound } from "@/lib/laps/lower-bound";
 import { brakingPoints, type BrakingPoint } from "@/lib/braking/braking-points";

@@ -85,26 +85,25 @@ describe("MariaDB killed (SIGKILL) and restarted", () => {
     expect(session?.status).toBe("mapping");
     await confirmMapping(s, team.teamId, sessionId, session!.mapping as Mapping, "Fault profile");
 
+    // Pages are requested all through: before the job, through the outage, after it.
+    expect(await load("/home")).toBe(200);
+    expect(await load(`/sessions/${sessionId}`)).toBe(200);
+    const statuses: number[] = [];
+    let serving = true;
+    const pageLoads = (async () => {
+      while (serving) {
+        statuses.push(await load("/sessions"));
+        await new Promise((r) => setTimeout(r, 150));
+      }
+    })();
+
     // The worker pauses with every chunk written inside its open transaction: the kill lands there.
-    const worker = spawnProc("worker", "worker", { ...env, LAPBENCH_TEST_PAUSE_BEFORE_COMMIT_MS: "3000", LAPBENCH_WORKER_STALE_S: "5" });
+    const worker = spawnProc("worker", "worker", { ...env, LAPBENCH_TEST_PAUSE_BEFORE_COMMIT_MS: "8000", LAPBENCH_WORKER_STALE_S: "5" });
     try {
       await waitFor(() => worker.output.join("").includes(`session ${sessionId}: samples written`), 60_000, "the worker to be mid-job");
-      expect(await load("/home")).toBe(200);
-      expect(await load(`/sessions/${sessionId}`)).toBe(200);
-
-      // Pages keep being requested through the outage.
-      const statuses: number[] = [];
-      let serving = true;
-      const pageLoads = (async () => {
-        while (serving) {
-          statuses.push(await load("/sessions"));
-          await new Promise((r) => setTimeout(r, 150));
-        }
-      })();
-
       await db.kill9();
       const killedAt = statuses.length;
-      await waitFor(() => statuses.length >= killedAt + 3, 20_000, "page loads during the outage");
+      await waitFor(() => statuses.length >= killedAt + 3, 30_000, "page loads during the outage");
       const duringOutage = statuses.slice(killedAt + 1); // the first may have been answered before the kill
       await db.restart();
 
@@ -115,8 +114,6 @@ describe("MariaDB killed (SIGKILL) and restarted", () => {
 
       // The same web app process answers again, with no restart.
       await waitFor(async () => (await load("/sessions")) === 200, 30_000, "the web app to answer again");
-      serving = false;
-      await pageLoads;
       expect(web.exitCode).toBeNull();
       expect(duringOutage.every((x) => x !== 200)).toBe(true);
       for (let i = 0; i < 5; i++) expect(await load("/home")).toBe(200);
@@ -124,6 +121,8 @@ describe("MariaDB killed (SIGKILL) and restarted", () => {
       await waitFor(async () => (await RideSession.findByPk(sessionId))?.status === "ready", 90_000, "the retried job to reach ready");
       expect(worker.exitCode).toBeNull(); // the worker lived through the outage
     } finally {
+      serving = false;
+      await pageLoads;
       await stopProc(worker);
     }
 

@@ -80,7 +80,7 @@ describe("two web apps and two workers on one database", () => {
       }
     }
     // Signed out on B is signed out on A.
-    const out = await fetch(`${b.url}/api/auth/sign-out`, { method: "POST", headers: { cookie: onB, origin: b.url } });
+    const out = await fetch(`${b.url}/api/auth/sign-out`, { method: "POST", headers: { cookie: onB, origin: b.url, "content-type": "application/json" }, body: "{}" });
     expect(out.status).toBe(200);
     const after = await get(`${a.url}/api/auth/get-session`, onB);
     expect(await after.json()).toBeNull();

@@ -18,7 +18,8 @@ export const config = {
   root,
   dataDir: process.env.LAPBENCH_DATA_DIR ?? path.join(root, ".data"),
   db: {
-    host: "127.0.0.1",
+    // Another machine when deploying past one; the private server the start script runs listens on 127.0.0.1 only.
+    host: process.env.LAPBENCH_DB_HOST ?? "127.0.0.1",
     port: int("LAPBENCH_DB_PORT", 3407),
     name: process.env.LAPBENCH_DB_NAME ?? "lapbench",
     user: process.env.LAPBENCH_DB_USER ?? "lapbench",

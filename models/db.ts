@@ -14,12 +14,12 @@ declare global {
   var __lapbenchSequelize: Sequelize | undefined;
 }
 
-export function createSequelize(dbName = config.db.name, opts: { logging?: boolean; pool?: number } = {}): Sequelize {
+export function createSequelize(dbName = config.db.name, opts: { logging?: boolean; pool?: number; port?: number } = {}): Sequelize {
   return new Sequelize(dbName, config.db.user, config.db.password, {
     dialect: "mariadb",
     dialectModule: mariadbDriver,
     host: config.db.host,
-    port: config.db.port,
+    port: opts.port ?? config.db.port,
     logging: opts.logging ? console.log : false,
     timezone: "+00:00",
     pool: { max: opts.pool ?? 10, min: 0, idle: 10_000, acquire: 30_000 },

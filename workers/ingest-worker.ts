@@ -31,6 +31,29 @@ async function recover(sequelize = getSequelize()) {
   }
 }
 
+/**
+ * Run `write` until it succeeds or `RECORD_TRY_S` pass (connection errors while MariaDB restarts),
+ * with a growing pause between tries. Gives up with null: the job then stays "running" without
+ * heartbeats, and recoverStaleJobs (any worker's) puts it back in the queue.
+ */
+const RECORD_TRY_S = Number(process.env.LAPBENCH_WORKER_RECORD_TRY_S ?? 120);
+async function untilDatabaseAnswers<T>(what: string, write: () => Promise<T>): Promise<T | null> {
+  const end = Date.now() + RECORD_TRY_S * 1000;
+  let pauseMs = 250;
+  for (;;) {
+    try {
+      return await write();
+    } catch (e) {
+      if (Date.now() + pauseMs > end || stopping) {
+        log(`${what} failed: ${e instanceof Error ? e.message : String(e)}`);
+        return null;
+      }
+      await new Promise((r) => setTimeout(r, pauseMs));
+      pauseMs = Math.min(5000, pauseMs * 2);
+    }
+  }
+}
+
 async function loop() {
   const sequelize = getSequelize();
   initModels(sequelize);
@@ -62,11 +85,17 @@ async function loop() {
       log(`job ${job.id} ${outcome} in ${Date.now() - t0} ms${stages.length ? ` (${stages.join(", ")} ms)` : ""}`);
     } catch (e) {
       const msg = e instanceof Error ? e.message : String(e);
-      const r = await retryJob(sequelize, job, msg);
-      log(`job ${job.id} error (${r}): ${msg}`);
-      if (r === "failed" && job.sessionId)
-        await RideSession.update({ status: "failed", statusReason: `Reading this file failed after ${job.attempts} attempts: ${msg}` }, { where: { id: job.sessionId } });
-      else if (job.sessionId) await RideSession.update({ status: "queued", progress: 0 }, { where: { id: job.sessionId } });
+      log(`job ${job.id} error: ${msg}`);
+      // The error may be the database itself going away (restart, crash): keep trying to record the
+      // retry while it comes back, instead of letting the worker die with the job marked running.
+      const recorded = await untilDatabaseAnswers(`recording the retry of job ${job.id}`, async () => {
+        const r = await retryJob(sequelize, job, msg);
+        if (r === "failed" && job.sessionId)
+          await RideSession.update({ status: "failed", statusReason: `Reading this file failed after ${job.attempts} attempts: ${msg}` }, { where: { id: job.sessionId } });
+        else if (job.sessionId) await RideSession.update({ status: "queued", progress: 0 }, { where: { id: job.sessionId } });
+        return r;
+      });
+      log(`job ${job.id} ${recorded ?? "left running; the stale-job recovery will requeue it"}`);
     } finally {
       clearInterval(beat);
     }

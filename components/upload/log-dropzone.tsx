@@ -74,6 +74,35 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
     },
   });
 
+  /** Files whose upload failed in a way a second try may fix, by item key. */
+  const retryable = useRef(new Map<string, File>());
+
+  /** One file through the SDK; its session's page, or null with the item marked as failed. */
+  const uploadOne = useCallback(
+    async (file: File, key: string): Promise<string | null> => {
+      current.current = key;
+      lastError.current = null;
+      retryable.current.delete(key);
+      patch(key, { state: "uploading", progress: 0, message: undefined });
+      const res = await startUpload([file]).catch((e: unknown) => {
+        lastError.current ??= { message: e instanceof Error ? e.message : String(e) };
+        return undefined;
+      });
+      const sessionId = (res?.[0]?.serverData as { sessionId?: number } | undefined)?.sessionId;
+      if (!sessionId) {
+        const err: { code?: string; message?: string } = lastError.current ?? {};
+        // A refusal (role, type, size) stays refused; anything else may pass on a second try.
+        if (err.code !== "FORBIDDEN" && err.code !== "BAD_REQUEST" && err.code !== "TOO_LARGE") retryable.current.set(key, file);
+        patch(key, { state: "error", message: explain(err, file, maxBytes) });
+        return null;
+      }
+      const href = await sessionTarget(sessionId);
+      patch(key, { state: "done", progress: 100, href });
+      return href;
+    },
+    [maxBytes, patch, startUpload],
+  );
+
   const uploadAll = useCallback(
     async (files: File[]) => {
       if (files.length === 0) return;
@@ -92,24 +121,28 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
           patch(key, { state: "error", message: `"${file.name}" is empty (0 bytes); export the log again.` });
           continue;
         }
-        current.current = key;
-        lastError.current = null;
-        patch(key, { state: "uploading", progress: 0 });
-        const res = await startUpload([file]);
-        const sessionId = (res?.[0]?.serverData as { sessionId?: number } | undefined)?.sessionId;
-        if (!sessionId) {
-          patch(key, { state: "error", message: explain(lastError.current ?? {}, file, maxBytes) });
-          continue;
-        }
-        const href = await sessionTarget(sessionId);
-        patch(key, { state: "done", progress: 100, href });
-        done.push(href);
+        const href = await uploadOne(file, key);
+        if (href) done.push(href);
       }
       current.current = null;
       setBusy(false);
       if (files.length === 1 && done.length === 1) router.push(done[0]);
     },
-    [maxBytes, patch, router, startUpload],
+    [maxBytes, patch, router, uploadOne],
+  );
+
+  /** The same file again, after a failure that may pass (service down, connection lost). */
+  const retry = useCallback(
+    async (key: string) => {
+      const file = retryable.current.get(key);
+      if (!file) return;
+      setBusy(true);
+      const href = await uploadOne(file, key);
+      current.current = null;
+      setBusy(false);
+      if (href) router.push(href);
+    },
+    [router, uploadOne],
   );
 
   const { getRootProps, getInputProps, isDragActive } = useDropzone({ onDrop: (files: File[]) => void uploadAll(files), multiple: true, disabled: busy });
@@ -171,6 +204,16 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
                 )}
                 {i.state === "error" && <span className="text-alert-400">{i.message}</span>}
               </p>
+              {i.state === "error" && retryable.current.has(i.key) && (
+                <button
+                  type="button"
+                  onClick={() => void retry(i.key)}
+                  disabled={busy}
+                  className="mt-2 rounded border border-ink-500 px-2 py-0.5 text-xs font-semibold text-ink-100 hover:border-signal-400 disabled:opacity-50"
+                >
+                  Try again
+                </button>
+              )}
             </li>
           ))}
         </ul>

@@ -5,6 +5,7 @@
  */
 import { createUploadthing, UploadThingError, type FileRouter } from "uploadthing/server";
 import { getStatusCodeFromError, type FileSize } from "@uploadthing/shared";
+import { assertUploadServiceAnswers } from "./upload-service-check";
 
 export interface Uploader {
   userId: string;
@@ -74,6 +75,7 @@ export function createLogFileRouter(deps: LogFileRouterDeps) {
             });
           }
         }
+        await assertUploadServiceAnswers();
         return { userId: who.userId, teamId: who.teamId };
       })
       .onUploadComplete(async ({ metadata, file }) => {

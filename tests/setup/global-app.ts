@@ -8,7 +8,7 @@ import { execFileSync } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
 import { startStack, type RunningStack } from "../../workers/services/stack";
-import { dropDatabase } from "../../workers/services/mariadb";
+import { dropDatabase, startMariadb } from "../../workers/services/mariadb";
 
 function ensureChromium(): string {
   const bin = "/usr/bin/chromium";
@@ -32,6 +32,8 @@ export default async function setup(project: TestProject) {
   const root = path.resolve(__dirname, "../..");
   const dataDir = path.join(root, ".data", `e2e-${process.pid}`);
   const dbName = `lapbench_e2e_${process.pid}`;
+  // A fresh checkout has no server running yet: start it before dropping a leftover database.
+  await startMariadb();
   dropDatabase(dbName);
   // The browser tests sign in many times a minute from 127.0.0.1; the limit itself is tested in
   // tests/integration/auth-flow.test.ts.

@@ -51,14 +51,16 @@ export function ensureMariadbInstalled(): void {
   }
 }
 
-function bin(name: string): string {
+/** Path of a MariaDB program (mariadbd, mariadb, mariadb-dump…), found on PATH or in /usr/(s)bin. */
+export function bin(name: string): string {
   const found = which(name);
   if (found) return found;
   for (const dir of ["/usr/sbin", "/usr/bin"]) if (fs.existsSync(path.join(dir, name))) return path.join(dir, name);
   throw new Error(`${name} not found after installing mariadb-server`);
 }
 
-function adminArgs(p: MariadbPaths, ...rest: string[]): string[] {
+/** Arguments that connect a MariaDB client program as root over the private socket. */
+export function adminArgs(p: MariadbPaths, ...rest: string[]): string[] {
   return ["--no-defaults", `--socket=${p.socket}`, "-uroot", ...rest];
 }
 

@@ -142,7 +142,9 @@ export async function prepareImport(sequelize: Sequelize, sessionId: number, opt
     await session.update({ status: "queued", statusReason: null, progress: 0, mapping: profile.mapping, importProfileId: profile.id, summary: { preview } });
     await enqueueJob(sequelize, sessionId);
   } else {
-    await session.update({ status: "mapping", statusReason: null, progress: 0, mapping: opts.forceMapping && session.mapping ? session.mapping : suggestion, summary: { preview } });
+    // Mapped again: what the last analysis left (its summary) stays beside the new preview until the file is read again.
+    const kept = opts.forceMapping ? ((session.summary ?? {}) as Record<string, unknown>) : {};
+    await session.update({ status: "mapping", statusReason: null, progress: 0, mapping: opts.forceMapping && session.mapping ? session.mapping : suggestion, summary: { ...kept, preview } });
   }
   return session;
 }
@@ -179,8 +181,12 @@ export function validateMapping(m: Mapping): string[] {
   return problems;
 }
 
-/** The person confirmed a mapping: save it as the team's Import profile for this header and queue the parse. */
-export async function confirmMapping(sequelize: Sequelize, teamId: string, sessionId: number, mapping: Mapping, profileName: string): Promise<void> {
+/**
+ * The person confirmed a mapping: save it as the team's Import profile for this header and queue
+ * the parse. With `updateProfile: false` and a profile for this header already there, the profile
+ * stays as it is and the mapping applies to this session only.
+ */
+export async function confirmMapping(sequelize: Sequelize, teamId: string, sessionId: number, mapping: Mapping, profileName: string, opts: { updateProfile?: boolean } = {}): Promise<void> {
   initModels(sequelize);
   const session = await RideSession.findOne({ where: { id: sessionId, teamId } });
   if (!session) throw new HttpError(404, "Session was not found in your team.");
@@ -193,6 +199,11 @@ export async function confirmMapping(sequelize: Sequelize, teamId: string, sessi
   const problems = validateMapping(mapping);
   if (problems.length) throw new HttpError(422, problems.join(" "));
   const profileId = await sequelize.transaction(async (t) => {
+    const existing = await ImportProfile.findOne({ where: { teamId, headerSignature: preview.signature }, transaction: t });
+    if (existing && opts.updateProfile === false) {
+      await session.update({ mapping, importProfileId: null, status: "queued", statusReason: null, progress: 0 }, { transaction: t });
+      return null;
+    }
     await sequelize.query(
       `INSERT INTO import_profiles (team_id, name, header_signature, format, mapping) VALUES (?, ?, ?, 'csv', ?)
        ON DUPLICATE KEY UPDATE name = VALUES(name), mapping = VALUES(mapping), updated_at = CURRENT_TIMESTAMP(3)`,

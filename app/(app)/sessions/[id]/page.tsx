@@ -18,6 +18,7 @@ import { getSetupSheetView } from "@/lib/data/setup-sheets";
 import { getSessionNotes } from "@/lib/data/session-notes";
 import { SetupSheet } from "@/components/session/setup-sheet";
 import { SessionNotes } from "@/components/session/session-notes";
+import { ReimportButton } from "@/components/session/reimport-button";
 
 export const metadata: Metadata = { title: "Session" };
 
@@ -62,6 +63,16 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
             <h2 id="channels" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-300">Channels</h2>
             <ChannelTable channels={o.channels} />
           </section>
+          {canEdit && o.format === "csv" && (
+            <section className="card space-y-2" aria-labelledby="mapping-again" data-testid="map-again">
+              <h2 id="mapping-again" className="text-sm font-semibold uppercase tracking-wide text-ink-300">Column mapping</h2>
+              <p className="text-sm text-ink-400">
+                A column read the wrong way? Map the file again: laps, findings and analyses are computed again from the kept file; setup sheets, notes and
+                acknowledgements stay.
+              </p>
+              <ReimportButton sessionId={s.id} label="Map again" />
+            </section>
+          )}
         </>
       )}
 

@@ -215,14 +215,16 @@ export async function prepareImport(sequelize: Sequelize, sessionId: number, opt
     suggestion,
     signature,
   };
-  const profile = opts.forceMapping ? null : await ImportProfile.findOne({ where: { teamId: session.teamId, headerSignature: signature } });
+  const stored = await ImportProfile.findOne({ where: { teamId: session.teamId, headerSignature: signature } });
+  const profile = opts.forceMapping ? null : stored;
   if (profile) {
     await session.update({ status: "queued", statusReason: null, progress: 0, mapping: profile.mapping, importProfileId: profile.id, summary: { preview } });
     await enqueueJob(sequelize, sessionId);
   } else {
-    // Mapped again: what the last analysis left (its summary) stays beside the new preview until the file is read again.
+    // Mapped again: start from the team's profile for this header as it is now (edited since, perhaps),
+    // else from the session's own mapping. What the last analysis left (its summary) stays beside the new preview until the file is read again.
     const kept = opts.forceMapping ? ((session.summary ?? {}) as Record<string, unknown>) : {};
-    await session.update({ status: "mapping", statusReason: null, progress: 0, mapping: opts.forceMapping && session.mapping ? session.mapping : suggestion, summary: { ...kept, preview } });
+    await session.update({ status: "mapping", statusReason: null, progress: 0, mapping: opts.forceMapping ? (stored?.mapping ?? session.mapping ?? suggestion) : suggestion, summary: { ...kept, preview } });
   }
   return session;
 }

@@ -18,6 +18,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/sessions", label: "Sessions", roles: ALL },
   { href: "/compare", label: "Compare", roles: ALL },
   { href: "/upload", label: "Upload", roles: ["owner", "engineer"] },
+  { href: "/import-profiles", label: "Import profiles", roles: ["owner", "engineer"] },
   { href: "/events", label: "Events", roles: ALL },
   { href: "/tracks", label: "Tracks", roles: ALL },
   { href: "/bikes", label: "Bikes", roles: ALL },

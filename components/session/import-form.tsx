@@ -22,6 +22,8 @@ export interface ImportFormProps {
   columns: MappingColumnView[];
   timeFormat: ImportFormInput["timeFormat"];
   profileName: string;
+  existingProfile: { id: number; name: string } | null;
+  mappedBefore: boolean;
   details: SessionDetailsView;
   options: DetailOptions;
 }
@@ -58,6 +60,7 @@ export function ImportForm(props: ImportFormProps) {
       conditions: props.details.conditions,
       sharedWithRiders: props.details.sharedWithRiders,
       profileName: props.profileName,
+      updateProfile: true,
       timeFormat: props.timeFormat,
       columns: props.columns.map((c) => ({ index: c.index, role: c.role, unit: c.unit, scale: c.scale, offset: c.offset })),
     },
@@ -66,6 +69,7 @@ export function ImportForm(props: ImportFormProps) {
   const { fields } = useFieldArray({ control, name: "columns" });
   const roles = useWatch({ control, name: "columns" });
   const timeFormat = useWatch({ control, name: "timeFormat" });
+  const updateProfile = useWatch({ control, name: "updateProfile" });
   const errors = formState.errors;
 
   function onRoleChange(i: number, role: string) {
@@ -224,9 +228,28 @@ export function ImportForm(props: ImportFormProps) {
           {rootColumnsError && <p className="mt-2 text-sm text-alert-400">{rootColumnsError}</p>}
         </section>
 
+        {props.existingProfile && (
+          <fieldset className="card space-y-2" data-testid="update-profile">
+            <legend className="px-1 text-sm font-semibold text-ink-100">Update the Import profile “{props.existingProfile.name}” with this mapping?</legend>
+            <p className="text-sm text-ink-400">Every later file with these columns is read with the profile. Sessions already read keep their data until they are mapped again.</p>
+            <label className="flex items-center gap-2 text-sm">
+              <input type="radio" name="updateProfile" checked={updateProfile !== false} onChange={() => setValue("updateProfile", true)} />
+              Yes, update the profile (and its name above)
+            </label>
+            <label className="flex items-center gap-2 text-sm">
+              <input type="radio" name="updateProfile" checked={updateProfile === false} onChange={() => setValue("updateProfile", false)} />
+              No, use this mapping for this session only
+            </label>
+          </fieldset>
+        )}
+
         <div className="flex flex-wrap items-center gap-4">
-          <button type="submit" className="btn-primary" disabled={pending}>{pending ? "Saving…" : "Save and import"}</button>
-          <p className="text-sm text-ink-400">The mapping is saved as an Import profile; the next file with these columns is read without asking.</p>
+          <button type="submit" className="btn-primary" disabled={pending}>{pending ? "Saving…" : props.mappedBefore ? "Save and read the file again" : "Save and import"}</button>
+          <p className="text-sm text-ink-400">
+            {props.mappedBefore
+              ? "Laps, findings and analyses are computed again from the file; setup sheets, notes and acknowledgements stay."
+              : "The mapping is saved as an Import profile; the next file with these columns is read without asking."}
+          </p>
         </div>
         {message && (
           <p role="alert" className="rounded-md border border-alert-500/50 bg-alert-500/10 px-3 py-2 text-sm text-alert-400">{message}</p>

@@ -11,6 +11,7 @@ import { actionTeam } from "@/lib/auth/page-guard";
 import { HttpError } from "@/lib/http/http-error";
 import { getSequelize } from "@/models/db";
 import { confirmSessionImport, reimportSession, updateSessionDetails } from "@/lib/data/session-details";
+import { resolveDuplicate } from "@/lib/data/imports";
 import { importFormSchema, sessionDetailsSchema, issuesToErrors, type FormState, type ImportFormInput, type SessionDetailsInput } from "@/lib/forms/session-form";
 
 const UPLOAD = { permission: { "session-data": ["upload"] } } as const;
@@ -73,4 +74,20 @@ export async function reimportAction(_prev: FormState, form: FormData): Promise<
   revalidateSession(sessionId);
   // GPX/NMEA need no mapping: they are queued again at once and the session page shows progress.
   redirect(status === "mapping" ? `/sessions/${sessionId}/import` : `/sessions/${sessionId}`);
+}
+
+/** "This file was uploaded before": go to the earlier session (this copy is dropped), or import it again on purpose. */
+export async function resolveDuplicateAction(_prev: FormState, form: FormData): Promise<FormState> {
+  const g = await actionTeam(UPLOAD);
+  if (!g.ctx) return { ok: false, message: g.error };
+  const sessionId = Number(form.get("sessionId"));
+  const choice = form.get("choice") === "import" ? "import" : "existing";
+  let target: { sessionId: number; status: string };
+  try {
+    target = await resolveDuplicate(getSequelize(), g.ctx.teamId, sessionId, choice);
+  } catch (e) {
+    return failure(e);
+  }
+  revalidateSession(target.sessionId);
+  redirect(target.status === "mapping" ? `/sessions/${target.sessionId}/import` : `/sessions/${target.sessionId}`);
 }

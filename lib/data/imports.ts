@@ -4,6 +4,7 @@
  * for this header (queue at once) or keep a suggested mapping for the person to confirm.
  * Bad files fail here with a specific reason; the stored file is always kept for a re-import.
  */
+import { createHash } from "node:crypto";
 import { QueryTypes, type Sequelize } from "sequelize";
 import { z } from "zod";
 import { initModels, ImportProfile, LogFile, RideSession } from "@/models";
@@ -60,26 +61,103 @@ export interface RegisterUploadInput {
   file: { key: string; name: string; size: number; ufsUrl: string; fileHash?: string };
 }
 
-/** Called when the upload service confirms a stored file: creates the LogFile and its Session. */
-export async function registerUpload(sequelize: Sequelize, input: RegisterUploadInput): Promise<{ sessionId: number }> {
+/** SHA-256 (hex) of the stored file, read back from storage as a stream. Null when it cannot be read (the import then says why). */
+export async function sha256OfUrl(url: string): Promise<string | null> {
+  try {
+    const res = await fetch(url, { cache: "no-store" });
+    if (!res.ok || !res.body) return null;
+    const h = createHash("sha256");
+    const reader = res.body.getReader();
+    for (;;) {
+      const { value, done } = await reader.read();
+      if (done) break;
+      h.update(value);
+    }
+    return h.digest("hex");
+  } catch {
+    return null;
+  }
+}
+
+/** What a session held back as a duplicate shows: the earlier session with the same bytes. */
+export interface DuplicateOf {
+  sessionId: number;
+  title: string;
+  uploadedAt: string;
+}
+
+/** The team's latest session read from a file with these bytes (other than `exceptSessionId`). */
+export async function findSessionWithHash(sequelize: Sequelize, teamId: string, sha256: string, exceptSessionId?: number): Promise<DuplicateOf | null> {
+  const rows = await sequelize.query<{ id: number; title: string | null; createdAt: Date | string }>(
+    `SELECT s.id, s.title, s.created_at AS createdAt FROM log_files f JOIN ride_sessions s ON s.log_file_id = f.id
+     WHERE f.team_id = ? AND f.sha256 = ? AND s.team_id = ? AND s.id <> ? ORDER BY s.created_at DESC, s.id DESC LIMIT 1`,
+    { replacements: [teamId, sha256, teamId, exceptSessionId ?? 0], type: QueryTypes.SELECT },
+  );
+  const r = rows[0];
+  return r ? { sessionId: Number(r.id), title: r.title ?? `Session ${r.id}`, uploadedAt: new Date(r.createdAt).toISOString() } : null;
+}
+
+/**
+ * Called when the upload service confirms a stored file: creates the LogFile (with the SHA-256 of
+ * its bytes) and its Session. The same bytes uploaded before in this team are not read again on
+ * their own: the session waits ("uploaded", with `duplicateOf` in its summary) until the person
+ * chooses to go to the earlier session or to import the file again on purpose.
+ */
+export async function registerUpload(sequelize: Sequelize, input: RegisterUploadInput): Promise<{ sessionId: number; duplicateOf?: number }> {
   initModels(sequelize);
   const { file } = input;
+  const sha256 = await sha256OfUrl(file.ufsUrl);
+  const earlier = sha256 ? await findSessionWithHash(sequelize, input.teamId, sha256) : null;
   const session = await sequelize.transaction(async (t) => {
     const log = await LogFile.create(
-      { teamId: input.teamId, uploadKey: file.key, name: file.name.slice(0, 255), bytes: file.size, sha256: null, contentType: null, url: file.ufsUrl, uploadedBy: input.userId },
+      { teamId: input.teamId, uploadKey: file.key, name: file.name.slice(0, 255), bytes: file.size, sha256, contentType: null, url: file.ufsUrl, uploadedBy: input.userId },
       { transaction: t },
     );
     return RideSession.create(
       {
         teamId: input.teamId, logFileId: log.id, status: "uploaded", title: file.name.replace(/\.[a-z0-9]+$/i, "").slice(0, 160),
         createdBy: input.userId, eventId: null, bikeId: null, engineId: null, riderId: null, trackId: null, importProfileId: null,
-        startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null,
+        startedAt: null, conditions: null, statusReason: null, mapping: null, summary: earlier ? { duplicateOf: earlier } : null, durationS: null,
       },
       { transaction: t },
     );
   });
+  if (earlier) return { sessionId: session.id, duplicateOf: earlier.sessionId };
   await prepareImport(sequelize, session.id);
   return { sessionId: session.id };
+}
+
+/** The earlier session a held-back upload duplicates, or null when the session is not held back. */
+export function heldDuplicate(session: Pick<RideSession, "status" | "summary">): DuplicateOf | null {
+  if (session.status !== "uploaded") return null;
+  return (session.summary as { duplicateOf?: DuplicateOf } | null)?.duplicateOf ?? null;
+}
+
+/**
+ * The person's answer to "this file was uploaded before": `existing` drops the held-back session
+ * (the earlier one stays as it is) and returns the earlier session's id; `import` reads the file
+ * again on purpose, as a session of its own.
+ */
+export async function resolveDuplicate(sequelize: Sequelize, teamId: string, sessionId: number, choice: "existing" | "import"): Promise<{ sessionId: number; status: string }> {
+  initModels(sequelize);
+  const session = await RideSession.findOne({ where: { id: sessionId, teamId } });
+  if (!session) throw new HttpError(404, "Session was not found in your team.");
+  const dup = heldDuplicate(session);
+  if (!dup) throw new HttpError(409, "This session is not waiting for a duplicate choice.");
+  if (choice === "existing") {
+    const still = await RideSession.findOne({ where: { id: dup.sessionId, teamId }, attributes: ["id"] });
+    if (!still) throw new HttpError(404, "The earlier session with this file was deleted meanwhile; choose “Import again” to read this copy.");
+    const logId = session.logFileId;
+    await sequelize.transaction(async (t) => {
+      await session.destroy({ transaction: t });
+      // The earlier session has its own LogFile row; this one was only for the held-back copy.
+      if (logId) await LogFile.destroy({ where: { id: logId, teamId }, transaction: t });
+    });
+    return { sessionId: dup.sessionId, status: "existing" };
+  }
+  await session.update({ summary: null });
+  const after = await prepareImport(sequelize, sessionId);
+  return { sessionId, status: after.status };
 }
 
 async function failSession(sequelize: Sequelize, sessionId: number, reason: string) {
@@ -137,12 +215,16 @@ export async function prepareImport(sequelize: Sequelize, sessionId: number, opt
     suggestion,
     signature,
   };
-  const profile = opts.forceMapping ? null : await ImportProfile.findOne({ where: { teamId: session.teamId, headerSignature: signature } });
+  const stored = await ImportProfile.findOne({ where: { teamId: session.teamId, headerSignature: signature } });
+  const profile = opts.forceMapping ? null : stored;
   if (profile) {
     await session.update({ status: "queued", statusReason: null, progress: 0, mapping: profile.mapping, importProfileId: profile.id, summary: { preview } });
     await enqueueJob(sequelize, sessionId);
   } else {
-    await session.update({ status: "mapping", statusReason: null, progress: 0, mapping: opts.forceMapping && session.mapping ? session.mapping : suggestion, summary: { preview } });
+    // Mapped again: start from the team's profile for this header as it is now (edited since, perhaps),
+    // else from the session's own mapping. What the last analysis left (its summary) stays beside the new preview until the file is read again.
+    const kept = opts.forceMapping ? ((session.summary ?? {}) as Record<string, unknown>) : {};
+    await session.update({ status: "mapping", statusReason: null, progress: 0, mapping: opts.forceMapping ? (stored?.mapping ?? session.mapping ?? suggestion) : suggestion, summary: { ...kept, preview } });
   }
   return session;
 }
@@ -179,8 +261,12 @@ export function validateMapping(m: Mapping): string[] {
   return problems;
 }
 
-/** The person confirmed a mapping: save it as the team's Import profile for this header and queue the parse. */
-export async function confirmMapping(sequelize: Sequelize, teamId: string, sessionId: number, mapping: Mapping, profileName: string): Promise<void> {
+/**
+ * The person confirmed a mapping: save it as the team's Import profile for this header and queue
+ * the parse. With `updateProfile: false` and a profile for this header already there, the profile
+ * stays as it is and the mapping applies to this session only.
+ */
+export async function confirmMapping(sequelize: Sequelize, teamId: string, sessionId: number, mapping: Mapping, profileName: string, opts: { updateProfile?: boolean } = {}): Promise<void> {
   initModels(sequelize);
   const session = await RideSession.findOne({ where: { id: sessionId, teamId } });
   if (!session) throw new HttpError(404, "Session was not found in your team.");
@@ -193,6 +279,11 @@ export async function confirmMapping(sequelize: Sequelize, teamId: string, sessi
   const problems = validateMapping(mapping);
   if (problems.length) throw new HttpError(422, problems.join(" "));
   const profileId = await sequelize.transaction(async (t) => {
+    const existing = await ImportProfile.findOne({ where: { teamId, headerSignature: preview.signature }, transaction: t });
+    if (existing && opts.updateProfile === false) {
+      await session.update({ mapping, importProfileId: null, status: "queued", statusReason: null, progress: 0 }, { transaction: t });
+      return null;
+    }
     await sequelize.query(
       `INSERT INTO import_profiles (team_id, name, header_signature, format, mapping) VALUES (?, ?, ?, 'csv', ?)
        ON DUPLICATE KEY UPDATE name = VALUES(name), mapping = VALUES(mapping), updated_at = CURRENT_TIMESTAMP(3)`,

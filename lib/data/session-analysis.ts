@@ -13,26 +13,56 @@ import { analyseSeries, type SessionAnalysisSummary } from "@/lib/analysis/analy
 import { analysisBasis, buildAnalysisBase, PAGE_ROLES, seriesView } from "@/lib/analysis/analysis-base";
 import { precomputePageAnalyses } from "@/lib/analysis/page-analyses";
 import { storedJsonStringify } from "@/lib/analysis/stored-json";
-import { guessTrack, trackGatesForAnalysis } from "./tracks";
+import { guessTrack, medianPosition, trackCentre, trackGatesForAnalysis } from "./tracks";
+import { haversineM } from "@/lib/findings/haversine-m";
 import { loadAnalysisInputs } from "./analysis";
 
 /** Same event after a re-analysis: same kind and lap, start within this many seconds. */
 export const SAME_FINDING_WITHIN_S = 0.2;
 
-/** The session's track: its own, else its event's, else the nearest of the team's tracks. */
-async function resolveTrack(sequelize: Sequelize, t: Transaction, session: RideSession, series: SeriesLike): Promise<Track | null> {
+/** A track chosen for the session (its own or its event's) is used only when the log's positions lie within this distance of it, m. */
+export const TRACK_MATCH_MAX_M = 2000;
+
+/** A track the session was not put on because its GPS lies elsewhere. */
+export interface TrackRefusal {
+  trackId: number;
+  name: string;
+  /** From the log's median position to the track's centre, m. */
+  distanceM: number;
+  via: "session" | "event";
+}
+
+/**
+ * The session's track: its own, else its event's, else the nearest of the team's tracks. The GPS
+ * decides: its own or its event's track is refused when the log's median position is more than
+ * TRACK_MATCH_MAX_M from it (a session without GPS keeps what it was given).
+ */
+async function resolveTrack(sequelize: Sequelize, t: Transaction, session: RideSession, series: SeriesLike): Promise<{ track: Track | null; refused: TrackRefusal | null }> {
+  const at = medianPosition(series);
+  let refused: TrackRefusal | null = null;
+  const distance = (track: Track): number | null => {
+    const c = trackCentre(track);
+    return at && c ? haversineM(at.lat, at.lon, c.lat, c.lon) : null;
+  };
+  const accept = (track: Track, via: TrackRefusal["via"]): boolean => {
+    const d = distance(track);
+    if (d == null || d <= TRACK_MATCH_MAX_M) return true;
+    refused ??= { trackId: track.id, name: track.name, distanceM: Math.round(d), via };
+    return false;
+  };
   if (session.trackId != null) {
     const own = await Track.findOne({ where: { id: session.trackId, teamId: session.teamId }, transaction: t });
-    if (own) return own;
+    if (own && accept(own, "session")) return { track: own, refused: null };
   }
   if (session.eventId != null) {
     const ev = await RaceEvent.findOne({ where: { id: session.eventId, teamId: session.teamId }, transaction: t });
     if (ev?.trackId != null) {
       const viaEvent = await Track.findOne({ where: { id: ev.trackId, teamId: session.teamId }, transaction: t });
-      if (viaEvent) return viaEvent;
+      if (viaEvent && accept(viaEvent, "event")) return { track: viaEvent, refused: null };
     }
   }
-  return guessTrack(sequelize, session.teamId, series, { transaction: t });
+  const guessed = await guessTrack(sequelize, session.teamId, series, { transaction: t });
+  return { track: guessed && (!refused || guessed.id !== (refused as TrackRefusal).trackId) ? guessed : null, refused };
 }
 
 export async function analyseSessionInTransaction(sequelize: Sequelize, t: Transaction, sessionId: number, series: SeriesLike): Promise<SessionAnalysisSummary> {
@@ -40,7 +70,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
   const t0 = performance.now();
   const session = await RideSession.findByPk(sessionId, { transaction: t });
   if (!session) throw new Error(`session ${sessionId} not found`);
-  const track = await resolveTrack(sequelize, t, session, series);
+  const { track, refused: trackRefused } = await resolveTrack(sequelize, t, session, series);
   const bike = session.bikeId != null ? await Bike.findOne({ where: { id: session.bikeId, teamId: session.teamId }, transaction: t }) : null;
 
   const oldLaps = await Lap.findAll({ where: { sessionId, isInvalid: true }, attributes: ["number", "startTimeS"], transaction: t });
@@ -124,6 +154,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
 
   const analysisMs = Math.round(performance.now() - t0);
   if (track && session.trackId !== track.id) await RideSession.update({ trackId: track.id }, { where: { id: sessionId }, transaction: t });
+  else if (!track && session.trackId != null) await RideSession.update({ trackId: null }, { where: { id: sessionId }, transaction: t });
   const pages = await storePageAnalyses(sequelize, t, sessionId, series);
 
   const summary: SessionAnalysisSummary = {
@@ -135,7 +166,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
   };
   // Merge: the import preview (and anything else kept there) stays.
   const previous = (session.summary ?? {}) as Record<string, unknown>;
-  await RideSession.update({ summary: { ...previous, ...summary } }, { where: { id: sessionId }, transaction: t });
+  await RideSession.update({ summary: { ...previous, ...summary, trackRefused } }, { where: { id: sessionId }, transaction: t });
   return summary;
 }
 

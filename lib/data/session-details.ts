@@ -5,7 +5,7 @@ import "server-only";
  * Another team's session is "not found" (404); a role without upload permission is refused (403).
  */
 import type { Sequelize } from "sequelize";
-import { initModels, RideSession, Rider, Bike, Engine, RaceEvent, LogFile } from "@/models";
+import { initModels, RideSession, Rider, Bike, Engine, RaceEvent, LogFile, ImportProfile } from "@/models";
 import { roleCan, type TeamContext } from "@/lib/auth/guard";
 import { HttpError, forbidden } from "@/lib/http/http-error";
 import { confirmMapping, prepareImport, validateMapping, mappingSchema, type ImportPreview } from "./imports";
@@ -122,7 +122,7 @@ export async function confirmSessionImport(sequelize: Sequelize, ctx: Caller, se
   const problems = validateMapping(mapping);
   if (problems.length) throw new HttpError(422, problems.join(" "));
   await updateSessionDetails(sequelize, ctx, sessionId, v);
-  await confirmMapping(sequelize, ctx.teamId, sessionId, mapping, v.profileName);
+  await confirmMapping(sequelize, ctx.teamId, sessionId, mapping, v.profileName, { updateProfile: v.updateProfile });
 }
 
 /** "Re-import with another mapping": read the kept file again and go back to the mapping screen. */
@@ -177,6 +177,10 @@ export interface ImportScreen {
   timeConfidence: number | null;
   columns: ImportScreenColumn[];
   profileName: string;
+  /** The team's profile for this header, when there is one: the form asks whether to update it. */
+  existingProfile: { id: number; name: string } | null;
+  /** The session was read before (it is being mapped again). */
+  mappedBefore: boolean;
   details: SessionDetailsView;
 }
 
@@ -192,6 +196,7 @@ export async function getImportScreen(ctx: Caller, sessionId: number): Promise<I
   const mapped = new Map((mapping?.columns ?? []).map((c) => [c.index, c]));
   const header = preview?.header;
   const metadata = header?.metadata ?? {};
+  const existing = preview?.signature ? await ImportProfile.findOne({ where: { teamId: ctx.teamId, headerSignature: preview.signature } }) : null;
   const columns: ImportScreenColumn[] = (header?.columns ?? []).map((col) => {
     const m = mapped.get(col.index);
     const sug = suggested.get(col.index);
@@ -226,7 +231,9 @@ export async function getImportScreen(ctx: Caller, sessionId: number): Promise<I
     timeFormat: mapping?.timeFormat ?? "seconds",
     timeConfidence: preview?.suggestion?.timeConfidence ?? null,
     columns,
-    profileName: meta("logger", "device", "generator") ?? (log?.name ?? "Import profile").replace(/\.[a-z0-9]+$/i, ""),
+    profileName: existing?.name ?? meta("logger", "device", "generator") ?? (log?.name ?? "Import profile").replace(/\.[a-z0-9]+$/i, ""),
+    existingProfile: existing ? { id: existing.id, name: existing.name } : null,
+    mappedBefore: !!(s.summary as { analysedAt?: string } | null)?.analysedAt,
     details: {
       title: s.title ?? `Session ${s.id}`,
       kind: s.kind,

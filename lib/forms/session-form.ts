@@ -57,6 +57,8 @@ const mappedColumnSchema = z.object({
 
 export const importFormSchema = sessionDetailsSchema.extend({
   profileName: z.string().trim().min(1, "Name the Import profile so the next upload can reuse it").max(160, "At most 160 characters"),
+  /** When the team has a profile for this header already: save this mapping into it (true) or use it for this session only. */
+  updateProfile: z.boolean().default(true),
   timeFormat: z.enum(TIME_FORMATS, { error: "Choose how the time column is written" }),
   columns: z.array(mappedColumnSchema).min(2, "Map at least a time column and one channel"),
 }).superRefine((v, ctx) => {

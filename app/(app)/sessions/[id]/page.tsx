@@ -18,6 +18,10 @@ import { getSetupSheetView } from "@/lib/data/setup-sheets";
 import { getSessionNotes } from "@/lib/data/session-notes";
 import { SetupSheet } from "@/components/session/setup-sheet";
 import { SessionNotes } from "@/components/session/session-notes";
+import { ReimportButton } from "@/components/session/reimport-button";
+import { DuplicateChoice } from "@/components/session/duplicate-choice";
+import { getHeldDuplicate, getSessionTrackPanel } from "@/lib/data/session-track";
+import { SessionTrack } from "@/components/session/session-track";
 
 export const metadata: Metadata = { title: "Session" };
 
@@ -43,15 +47,23 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
   const [setup, notes] = await Promise.all([getSetupSheetView(ctx, sessionId), getSessionNotes(ctx, sessionId)]);
   const s = o.session;
   const ready = s.status === "ready";
+  const duplicate = s.status === "uploaded" ? await getHeldDuplicate(ctx, s.id) : null;
+  const trackPanel = ready ? await getSessionTrackPanel(ctx, s.id) : null;
+  const canEditSetup = roleCan(ctx.role, { setup: ["edit"] });
 
   return (
     <div className="space-y-6">
       <SessionHeader o={o} />
-      <SessionStatus initial={{ id: s.id, status: s.status, progress: s.progress, statusReason: s.statusReason }} canEdit={canEdit} />
+      {duplicate ? (
+        <DuplicateChoice sessionId={s.id} earlier={duplicate} canEdit={canEdit} />
+      ) : (
+        <SessionStatus initial={{ id: s.id, status: s.status, progress: s.progress, statusReason: s.statusReason }} canEdit={canEdit} />
+      )}
 
       {ready && (
         <>
           <SessionAnalysisLinks sessionId={s.id} />
+          {trackPanel && <SessionTrack sessionId={s.id} panel={trackPanel} canEdit={canEditSetup} defaultName={`Track of ${s.title ?? `session ${s.id}`}`.slice(0, 120)} />}
           <Suspense fallback={block}>
             <SessionFindings sessionId={s.id} teamId={ctx.teamId} canAcknowledge={canAcknowledge} />
           </Suspense>
@@ -62,6 +74,16 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
             <h2 id="channels" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-300">Channels</h2>
             <ChannelTable channels={o.channels} />
           </section>
+          {canEdit && o.format === "csv" && (
+            <section className="card space-y-2" aria-labelledby="mapping-again" data-testid="map-again">
+              <h2 id="mapping-again" className="text-sm font-semibold uppercase tracking-wide text-ink-300">Column mapping</h2>
+              <p className="text-sm text-ink-400">
+                A column read the wrong way? Map the file again: laps, findings and analyses are computed again from the kept file; setup sheets, notes and
+                acknowledgements stay.
+              </p>
+              <ReimportButton sessionId={s.id} label="Map again" />
+            </section>
+          )}
         </>
       )}
 

@@ -80,6 +80,8 @@ export default async function ImportPage({ params }: { params: Promise<{ id: str
         columns={screen.columns}
         timeFormat={screen.timeFormat}
         profileName={screen.profileName}
+        existingProfile={screen.existingProfile}
+        mappedBefore={screen.mappedBefore}
         details={screen.details}
         options={options}
       />

@@ -108,6 +108,9 @@ describe("upload contract: real SDK ↔ local upload fake", () => {
 
     const served = await fetch(result.ufsUrl);
     expect(served.status).toBe(200);
+    // A download, never rendered by the browser as the type it guesses.
+    expect(served.headers.get("content-disposition")).toBe(`attachment; filename*=UTF-8''${encodeURIComponent(file.name)}`);
+    expect(served.headers.get("x-content-type-options")).toBe("nosniff");
     const bytes = await served.arrayBuffer();
     expect(sha256(bytes)).toBe(sha256(await file.arrayBuffer()));
     // fileHash is the md5 of the content, as the hosted service reports it.

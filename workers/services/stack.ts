@@ -10,6 +10,7 @@ import net from "node:net";
 import path from "node:path";
 import { config } from "../../lib/config";
 import { startMariadb, ensureDatabase } from "./mariadb";
+import { QueryTypes } from "sequelize";
 import { createSequelize } from "../../models/db";
 import { migrateUp } from "../../models/migrate";
 import { loadOrCreateSecretFile, resolveAuthSecret } from "../../lib/security/auth-secret";
@@ -28,7 +29,8 @@ export interface StackOptions {
   dataDir: string;
   build: boolean;
   dev?: boolean;
-  seed: boolean;
+  /** Seed the invented demo team: always (`--demo`, tests), or only into an empty database. */
+  seed: boolean | "if-empty";
   worker: boolean;
   quiet?: boolean;
   /** Added to every child's environment (e.g. test-only settings). */
@@ -38,6 +40,8 @@ export interface StackOptions {
 export interface RunningStack {
   env: NodeJS.ProcessEnv;
   appUrl: string;
+  /** The demo team was seeded by this start. */
+  seeded: boolean;
   stop(): Promise<void>;
 }
 
@@ -179,6 +183,12 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     const s = createSequelize(o.dbName);
     say("migrating");
     await migrateUp(s, { quiet: true });
+    // Demo sign-ins (with a published password) only when asked for, or into a fresh install.
+    let seed = o.seed === true;
+    if (o.seed === "if-empty") {
+      const [{ n }] = await s.query<{ n: number }>("SELECT COUNT(*) AS n FROM user", { type: QueryTypes.SELECT });
+      seed = Number(n) === 0;
+    }
     await s.close();
 
     say(`starting the mail fake on 127.0.0.1:${o.mailPort} and the upload fake on 127.0.0.1:${o.uploadPort}`);
@@ -187,7 +197,7 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     children.push(mail, upload);
     await Promise.all([waitForPort(o.mailPort, 30_000, mail), waitForPort(o.uploadPort, 30_000, upload)]);
 
-    if (o.seed) {
+    if (seed) {
       say("seeding the demo team");
       const r = spawnSync(process.execPath, tsxArgs("workers/seed.ts"), { cwd: config.root, env, stdio: o.quiet ? "pipe" : "inherit" });
       if (r.status !== 0) throw new Error(`seeding failed: ${r.stderr?.toString() ?? ""}`);
@@ -213,7 +223,7 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     );
     children.push(web);
     await waitForHttp(`http://localhost:${o.appPort}/sign-in`, o.dev ? 180_000 : 60_000, web);
-    return { env, appUrl: `http://localhost:${o.appPort}`, stop };
+    return { env, appUrl: `http://localhost:${o.appPort}`, seeded: seed, stop };
   } catch (e) {
     await stop();
     throw e;

@@ -55,7 +55,8 @@ describe("network exposure", () => {
   const port = () => Number(new URL(appUrl()).port);
 
   it("the app listens on 127.0.0.1 only: another interface of this machine is refused", async () => {
-    const lan = Object.values(os.networkInterfaces()).flat().filter((i) => i && !i.internal).map((i) => i!.address);
+    // IPv4 addresses of the other interfaces (link-local IPv6 would need a scope id to connect to).
+    const lan = Object.values(os.networkInterfaces()).flat().filter((i) => i && !i.internal && i.family === "IPv4").map((i) => i!.address);
     expect(lan.length).toBeGreaterThan(0); // the check needs a second interface to mean anything
     for (const addr of lan) {
       const outcome = await new Promise<string>((resolve) => {

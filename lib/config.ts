@@ -3,6 +3,7 @@
  * development defaults. One place, so the start script, the worker, the fakes and the tests agree.
  */
 import path from "node:path";
+import { DEV_AUTH_SECRET } from "./security/auth-secret";
 
 const root = process.env.LAPBENCH_ROOT ?? process.cwd();
 
@@ -27,9 +28,13 @@ export const config = {
   },
   appPort: int("PORT", 3000),
   appUrl: process.env.BETTER_AUTH_URL ?? process.env.LAPBENCH_APP_URL ?? `http://localhost:${int("PORT", 3000)}`,
-  authSecret: process.env.BETTER_AUTH_SECRET ?? "lapbench-development-secret-change-me-in-production-0123456789",
+  /** The interface the web app listens on: loopback unless HOST says otherwise. */
+  host: process.env.HOST || "127.0.0.1",
+  // Development and tests only: a production server refuses this value (instrumentation.ts).
+  authSecret: process.env.BETTER_AUTH_SECRET || DEV_AUTH_SECRET,
   smtp: {
-    host: "127.0.0.1",
+    // The local mail service unless a real SMTP host is configured (then /dev/mail is off).
+    host: process.env.LAPBENCH_SMTP_HOST || "127.0.0.1",
     port: int("LAPBENCH_SMTP_PORT", 2525),
     from: process.env.LAPBENCH_MAIL_FROM ?? "Lapbench <no-reply@lapbench.invalid>",
   },

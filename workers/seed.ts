@@ -84,6 +84,8 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
       say(`sign-in ${u.email} (${u.role}) created`);
     }
   }
+  // The demo addresses are invented (.example) and cannot receive mail: mark them confirmed.
+  await sequelize.query("UPDATE user SET emailVerified = 1 WHERE email IN (?)", { replacements: [DEMO_USERS.map((u) => u.email)], type: QueryTypes.UPDATE });
 
   let teamId: string;
   const teams = await sequelize.query<{ id: string }>("SELECT id FROM organization WHERE slug = ?", { replacements: [DEMO_TEAM.slug], type: QueryTypes.SELECT });

@@ -2,6 +2,8 @@
  * `npm start`: install what is missing, start MariaDB and the local fakes, migrate, seed the
  * invented demo team, build and serve Lapbench on http://localhost:3000.
  * `npm run dev` does the same with `next dev` and no build.
+ * The demo team (sign-ins with a published password) is seeded only with `npm start -- --demo`
+ * or into an empty database.
  */
 import path from "node:path";
 import { config } from "../lib/config";
@@ -18,17 +20,19 @@ async function main() {
     dataDir: config.dataDir,
     build: !process.argv.includes("--no-build"),
     dev,
-    seed: true,
+    seed: process.argv.includes("--demo") ? true : "if-empty",
     worker: true,
   });
+  const demo = stack.seeded
+    ? ["Demo sign-ins (invented team; password for all: " + DEMO_PASSWORD + ")", ...DEMO_USERS.map((u) => `  ${u.role.padEnd(9)} ${u.email.padEnd(34)} ${u.name}`)]
+    : ["Demo team not seeded (the database has accounts). `npm start -- --demo` adds it."];
   const lines = [
     "",
-    `Lapbench is up: ${stack.appUrl}`,
+    `Lapbench is up: ${stack.appUrl}   (listening on ${stack.env.HOST}; set HOST to change)`,
     "",
-    "Demo sign-ins (invented team; password for all: " + DEMO_PASSWORD + ")",
-    ...DEMO_USERS.map((u) => `  ${u.role.padEnd(9)} ${u.email.padEnd(34)} ${u.name}`),
+    ...demo,
     "",
-    `Captured e-mails (invitations, resets): ${stack.appUrl}/dev/mail`,
+    ...(stack.env.LAPBENCH_MAIL_PAGE === "1" ? [`Captured e-mails (confirmations, invitations, resets; this machine only): ${stack.appUrl}/dev/mail`] : []),
     `Logs: ${path.join(config.dataDir, "logs")}   Stop: Ctrl+C (MariaDB keeps running; 'npm run stop' stops it)`,
     "",
   ];

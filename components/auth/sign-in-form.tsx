@@ -6,6 +6,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import Link from "next/link";
 import { authClient } from "@/lib/auth/client";
+import { safeReturnPath } from "@/lib/http/safe-return-path";
 
 const schema = z.object({
   email: z.email("Enter the e-mail address you signed up with"),
@@ -29,7 +30,7 @@ export function SignInForm({ next }: { next?: string }) {
       );
       return;
     }
-    router.push(next && next.startsWith("/") && !next.startsWith("//") ? next : "/");
+    router.push(safeReturnPath(next, "/"));
     router.refresh();
   }
 

@@ -6,6 +6,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import Link from "next/link";
 import { authClient } from "@/lib/auth/client";
+import { safeReturnPath } from "@/lib/http/safe-return-path";
 
 const MIN = 10;
 const schema = z
@@ -25,12 +26,13 @@ export function SignUpForm({ next, email }: { next?: string; email?: string }) {
 
   async function onSubmit(v: Values) {
     setError(null);
-    const { error } = await authClient.signUp.email({ name: v.name, email: v.email, password: v.password });
+    // The address-confirmation link mailed on sign-up comes back to the same page.
+    const { error } = await authClient.signUp.email({ name: v.name, email: v.email, password: v.password, callbackURL: safeReturnPath(next, "/teams/new") });
     if (error) {
       setError(error.message || "Could not create the account.");
       return;
     }
-    router.push(next && next.startsWith("/") && !next.startsWith("//") ? next : "/teams/new");
+    router.push(safeReturnPath(next, "/teams/new"));
     router.refresh();
   }
 

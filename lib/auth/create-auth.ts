@@ -9,9 +9,15 @@ import { config } from "../config";
 import { authOptions } from "./options";
 import { sequelizeAdapter } from "./sequelize-adapter";
 
-export function createAuth(sequelize: Sequelize) {
+export interface CreateAuthOptions {
+  /** Mail the address-confirmation link on sign-up, as the web app does. Off for scripts (the seed). */
+  sendVerificationOnSignUp?: boolean;
+}
+
+export function createAuth(sequelize: Sequelize, opts: CreateAuthOptions = {}) {
   return betterAuth({
     ...authOptions,
+    emailVerification: { ...authOptions.emailVerification, sendOnSignUp: opts.sendVerificationOnSignUp ?? false },
     database: sequelizeAdapter(sequelize),
     secret: config.authSecret,
     baseURL: config.appUrl,

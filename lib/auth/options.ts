@@ -10,6 +10,11 @@ import { ac, roles } from "./permissions";
 
 export const MIN_PASSWORD_LENGTH = 10;
 export const INVITATION_EXPIRES_S = 7 * 24 * 60 * 60;
+/** A session lasts 7 days and is extended (at most once a day) while it is used. */
+export const SESSION_EXPIRES_S = 7 * 24 * 60 * 60;
+export const SESSION_UPDATE_AGE_S = 24 * 60 * 60;
+/** Password-reset requests: 3 per 15 minutes per client address (each one sends an e-mail). */
+export const RESET_REQUEST_RATE_LIMIT = { window: 15 * 60, max: 3 };
 // 10 attempts a minute per client address. The end-to-end suite signs in dozens of times a minute
 // from one address, so its stack raises the ceiling through LAPBENCH_SIGNIN_RATE_MAX.
 export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.LAPBENCH_SIGNIN_RATE_MAX ?? 10) || 10 };
@@ -31,15 +36,17 @@ async function mail(to: string, subject: string, text: string, linkUrl: string, 
   await sendMail({ to, subject, text, html });
 }
 
-// Secure cookies need https: the demo runs `next start` on http://localhost, where a Secure
-// cookie would never come back and nobody could stay signed in.
-const useSecureCookies = process.env.NODE_ENV === "production" && config.appUrl.startsWith("https://");
+// Secure cookies whenever the public URL (BETTER_AUTH_URL) is https. The demo runs `next start`
+// on http://localhost, where a Secure cookie would never come back and nobody could stay signed in.
+export const useSecureCookies = (appUrl: string = config.appUrl) => appUrl.startsWith("https://");
 
 export const authOptions = {
   appName: "Lapbench",
   emailAndPassword: {
     enabled: true,
     minPasswordLength: MIN_PASSWORD_LENGTH,
+    // A reset ends every session of the account: whoever knew the old password is signed out.
+    revokeSessionsOnPasswordReset: true,
     async sendResetPassword({ user, url }) {
       await mail(
         user.email,
@@ -50,7 +57,25 @@ export const authOptions = {
       );
     },
   },
+  // Addresses are confirmed through a mailed link (the local mail service in a demo); a team
+  // invitation can only be accepted by a confirmed address that matches it.
+  emailVerification: {
+    sendOnSignUp: true,
+    autoSignInAfterVerification: true,
+    expiresIn: 24 * 60 * 60,
+    async sendVerificationEmail({ user, url }) {
+      await mail(
+        user.email,
+        "Confirm your Lapbench e-mail address",
+        `Open this link to confirm ${user.email} for your Lapbench account (valid for 24 hours):\n${url}\nIf you did not create an account, ignore this e-mail.`,
+        url,
+        "Confirm my address",
+      );
+    },
+  },
   session: {
+    expiresIn: SESSION_EXPIRES_S,
+    updateAge: SESSION_UPDATE_AGE_S,
     // The session row and its user, signed (HMAC with the auth secret) into a short-lived
     // session_data cookie, so a request's guard skips two database reads. It is checked against
     // the signed session_token cookie on every read. Team membership and role are NOT in it:
@@ -65,10 +90,17 @@ export const authOptions = {
     enabled: true,
     // In the database so the limit holds across the web process and any other process.
     storage: "database",
-    customRules: { "/sign-in/email": SIGN_IN_RATE_LIMIT },
+    customRules: {
+      "/sign-in/email": SIGN_IN_RATE_LIMIT,
+      "/request-password-reset": RESET_REQUEST_RATE_LIMIT,
+      "/send-verification-email": RESET_REQUEST_RATE_LIMIT,
+    },
   },
   advanced: {
-    useSecureCookies,
+    useSecureCookies: useSecureCookies(),
+    // The client address is X-Forwarded-For as rewritten in the web server process
+    // (workers/services/peer-address.mjs): the TCP peer, or the client behind a TRUSTED_PROXY.
+    ipAddress: { ipAddressHeaders: ["x-forwarded-for"] },
     defaultCookieAttributes: { sameSite: "lax", httpOnly: true },
   },
   trustedOrigins: [...new Set([config.appUrl, `http://127.0.0.1:${config.appPort}`, `http://localhost:${config.appPort}`])],
@@ -77,6 +109,7 @@ export const authOptions = {
       ac,
       roles,
       creatorRole: "owner",
+      requireEmailVerificationOnInvitation: true,
       invitationExpiresIn: INVITATION_EXPIRES_S,
       async sendInvitationEmail({ id, email, role, organization: team, inviter }) {
         const url = invitationUrl(id);

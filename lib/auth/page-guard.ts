@@ -4,12 +4,13 @@ import { headers } from "next/headers";
 import { redirect, notFound } from "next/navigation";
 import { requireTeam, type GuardOptions, type TeamContext } from "./guard";
 import { HttpError } from "@/lib/http/http-error";
+import { safeReturnPath } from "@/lib/http/safe-return-path";
 
 export async function pageTeam(opts: GuardOptions = {}, fromPath?: string): Promise<TeamContext> {
   const h = await headers();
   // proxy.ts passes the requested path; only same-site paths are used as a return address.
   const asked = h.get("x-lapbench-path");
-  const from = fromPath ?? (asked && asked.startsWith("/") && !asked.startsWith("//") ? asked : "/home");
+  const from = fromPath ?? safeReturnPath(asked, "/home");
   try {
     return await requireTeam(h, opts);
   } catch (e) {

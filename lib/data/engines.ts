@@ -17,6 +17,7 @@ import { jsonColumn } from "./json-column";
 import { loadSessionSeries } from "./session-series";
 import { optionalId, optionalNumber } from "./form-fields";
 import { ownBike } from "./bikes";
+import { sessionVisibility } from "./sessions";
 
 export const engineSchema = z.object({
   serial: z.string({ message: "Enter the engine's serial" }).trim().min(1, "Enter the engine's serial").max(80, "Keep the serial under 80 characters"),
@@ -132,12 +133,17 @@ export async function enginesOfBike(ctx: TeamContext, bikeId: number, rpm?: numb
   const sessions = engines.length
     ? await RideSession.findAll({ where: { teamId: ctx.teamId, status: "ready", engineId: { [Op.in]: engines.map((e) => e.id) } }, order: [["startedAt", "ASC"], ["id", "ASC"]] })
     : [];
+  // The engine's life counts every session it ran; the list names only sessions the caller may
+  // see (a rider: their own and those shared with riders).
+  const visible = ctx.role === "rider" && sessions.length
+    ? new Set((await RideSession.findAll({ where: { ...(await sessionVisibility(ctx)), id: { [Op.in]: sessions.map((s) => s.id) } }, attributes: ["id"] })).map((s) => s.id))
+    : null;
   const out: EngineWithLedger[] = [];
   for (const e of engines) {
     const rows: LedgerSessionRow[] = [];
     // One at a time: each may read samples, and the machine is small.
     for (const s of sessions.filter((x) => x.engineId === e.id)) rows.push(await sessionUsage(s, chosenRpm, ceiling));
-    out.push({ ...plainEngine(e), ledger: ledgerOf(e, rows), sessions: rows });
+    out.push({ ...plainEngine(e), ledger: ledgerOf(e, rows), sessions: visible ? rows.filter((r) => visible.has(r.sessionId)) : rows });
   }
   return { rpm: chosenRpm, engines: out };
 }

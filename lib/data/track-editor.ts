@@ -14,7 +14,7 @@ import { gateFromPoints } from "@/lib/geo/gate-from-points";
 import { lapOutline, thin } from "@/lib/geo/lap-outline";
 import { pathDistances } from "@/lib/geo/path-distances";
 import { loadSessionSeries } from "./session-series";
-import { sessionVisibility } from "./sessions";
+import { sessionVisibility, sessionVisibilitySql } from "./sessions";
 import { assertCanEditSetup } from "./setup-access";
 import { jsonColumn } from "./json-column";
 import { reanalyseTrackSessions } from "./reanalyse";
@@ -137,10 +137,12 @@ async function ownTrack(ctx: TeamContext, id: number): Promise<Track> {
 export async function listTracks(ctx: TeamContext): Promise<TrackListItem[]> {
   initModels();
   const rows = await Track.findAll({ where: { teamId: ctx.teamId }, order: [["name", "ASC"]] });
+  // Counts only the sessions the caller may see (a rider: their own and those shared with riders).
+  const visible = sessionVisibilitySql(ctx, "s");
   const counts = rows.length
     ? await getSequelize().query<{ trackId: number; n: number }>(
-        "SELECT track_id AS trackId, COUNT(*) AS n FROM ride_sessions WHERE team_id = ? AND track_id IN (?) GROUP BY track_id",
-        { replacements: [ctx.teamId, rows.map((r) => r.id)], type: QueryTypes.SELECT },
+        `SELECT s.track_id AS trackId, COUNT(*) AS n FROM ride_sessions s WHERE ${visible.sql} AND s.track_id IN (?) GROUP BY s.track_id`,
+        { replacements: [...visible.replacements, rows.map((r) => r.id)], type: QueryTypes.SELECT },
       )
     : [];
   return rows.map((t) => {

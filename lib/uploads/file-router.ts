@@ -20,9 +20,59 @@ export interface CompletedLogFile {
   fileHash: string;
 }
 
+/**
+ * Who may complete an upload, kept on the server. The upload service only ever carries the grant's
+ * random id back in the completion callback: team and user are never taken from the callback body,
+ * so whoever can sign a callback still cannot plant a session in another team.
+ */
+export interface UploadGrantStore {
+  issue(who: Uploader): Promise<string>;
+  /** The uploader of an unused, unexpired grant (marking it used), or null. */
+  redeem(grant: string, fileKey: string): Promise<Uploader | null>;
+}
+
+/** A grant store in memory: for tests of the router without a database. */
+export function memoryGrantStore(): UploadGrantStore & { size(): number } {
+  const grants = new Map<string, Uploader>();
+  let n = 0;
+  return {
+    async issue(who) {
+      const id = `grant-${++n}-${Math.random().toString(36).slice(2)}`;
+      grants.set(id, who);
+      return id;
+    },
+    async redeem(grant) {
+      const who = grants.get(grant) ?? null;
+      grants.delete(grant);
+      return who;
+    },
+    size: () => grants.size,
+  };
+}
+
+/**
+ * A stored file's URL is only fetched by the server when it points at the configured storage
+ * service: one of `origins`, path `/f/<the file's key>`. Anything else (another host, a local
+ * address, credentials in the URL) would make the server fetch what a forged callback names.
+ */
+export function isStoredFileUrl(url: string, key: string, origins: readonly string[]): boolean {
+  let u: URL;
+  try {
+    u = new URL(url);
+  } catch {
+    return false;
+  }
+  if (u.username || u.password || u.search || u.hash) return false;
+  if (u.protocol !== "http:" && u.protocol !== "https:") return false;
+  return origins.includes(u.origin) && u.pathname === `/f/${encodeURIComponent(key)}`;
+}
+
 export interface LogFileRouterDeps {
   /** Returns who uploads for which team, or throws (use `uploadDenied`). */
   authorize(req: Request): Promise<Uploader> | Uploader;
+  grants: UploadGrantStore;
+  /** Origins of the storage service whose file URLs are accepted. */
+  fileOrigins(): readonly string[];
   /** Creates the session for the stored file; its id goes back to the browser as serverData. */
   onComplete(args: { metadata: Uploader; file: CompletedLogFile }): Promise<{ sessionId: number }>;
   /** Only tests lower this; the product limit is 512 MB. */
@@ -76,11 +126,16 @@ export function createLogFileRouter(deps: LogFileRouterDeps) {
           }
         }
         await assertUploadServiceAnswers();
-        return { userId: who.userId, teamId: who.teamId };
+        return { grant: await deps.grants.issue({ userId: who.userId, teamId: who.teamId }) };
       })
       .onUploadComplete(async ({ metadata, file }) => {
         const { key, name, size, ufsUrl, fileHash } = file;
-        const { sessionId } = await deps.onComplete({ metadata, file: { key, name, size, ufsUrl, fileHash } });
+        if (!isStoredFileUrl(ufsUrl, key, deps.fileOrigins())) {
+          throw new Error(`Refused an upload callback whose file URL is not on the storage service: ${String(ufsUrl).slice(0, 200)}`);
+        }
+        const who = typeof metadata?.grant === "string" ? await deps.grants.redeem(metadata.grant, key) : null;
+        if (!who) throw new Error("Refused an upload callback without a valid, unused upload grant");
+        const { sessionId } = await deps.onComplete({ metadata: who, file: { key, name, size, ufsUrl, fileHash } });
         return { sessionId };
       }),
   } satisfies FileRouter;

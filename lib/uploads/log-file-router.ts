@@ -5,6 +5,8 @@ import { requireTeam } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
 import { registerUpload } from "@/lib/data/imports";
 import { getSequelize } from "@/models/db";
+import { dbUploadGrants } from "@/lib/data/upload-grants";
+import { storageOrigins } from "./storage-origins";
 
 export const logFileRouter = createLogFileRouter({
   async authorize(req) {
@@ -16,6 +18,9 @@ export const logFileRouter = createLogFileRouter({
       throw e;
     }
   },
+  grants: dbUploadGrants(getSequelize),
+  fileOrigins: () => storageOrigins(),
+  // metadata: the uploader recorded in the grant, never the callback body.
   async onComplete({ metadata, file }) {
     return registerUpload(getSequelize(), { teamId: metadata.teamId, userId: metadata.userId, file });
   },

@@ -7,6 +7,7 @@ import * as auth from "./0001-auth";
 import * as domain from "./0002-domain";
 import * as storedAnalysis from "./0003-stored-analysis";
 import * as logFileHash from "./0010-log-file-hash";
+import * as uploadGrants from "./0020-upload-grants";
 
 export interface Migration {
   name: string;
@@ -19,4 +20,5 @@ export const migrations: Migration[] = [
   { name: "0002-domain", ...domain },
   { name: "0003-stored-analysis", ...storedAnalysis },
   { name: "0010-log-file-hash", ...logFileHash },
+  { name: "0020-upload-grants", ...uploadGrants },
 ];

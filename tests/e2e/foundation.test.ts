@@ -1,7 +1,8 @@
 /**
  * A person's first minutes with Lapbench, in headless Chromium against the production build:
  * each demo role signs in and sees its own navigation; the owner invites a new engineer, who
- * follows the link in the captured e-mail, creates an account and joins the team.
+ * follows the link in the captured e-mail, creates an account, confirms the address from a second
+ * captured e-mail and joins the team.
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import type { Browser } from "playwright-core";
@@ -96,6 +97,16 @@ describe("invitation by e-mail", () => {
     await gp.getByLabel("Password", { exact: true }).fill("a-long-enough-password");
     await gp.getByLabel("Password again").fill("a-long-enough-password");
     await gp.getByRole("button", { name: "Create account" }).click();
+    await gp.waitForURL(/\/accept-invitation\//);
+    // Only a confirmed address may take the role: the page asks for the mailed confirmation first.
+    await gp.getByTestId("verify-first").waitFor();
+    await shot(gp, "accept-invitation-confirm-first");
+    await gp.goto(`${appUrl()}/dev/mail`);
+    const confirm = gp.getByTestId("mail").filter({ hasText: newcomer }).filter({ hasText: "Confirm your Lapbench e-mail address" }).first();
+    await confirm.waitFor();
+    const confirmLink = await confirm.getByTestId("mail-link").first().getAttribute("href");
+    expect(confirmLink).toMatch(/\/api\/auth\/verify-email\?token=/);
+    await gp.goto(confirmLink!.replace(/^https?:\/\/[^/]+/, appUrl()));
     await gp.waitForURL(/\/accept-invitation\//);
     await gp.getByRole("button", { name: "Accept and join the team" }).click();
     await gp.waitForURL(/\/home$/);

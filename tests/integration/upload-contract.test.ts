@@ -10,7 +10,7 @@ import path from "node:path";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { createRouteHandler, UploadThingError, UTApi } from "uploadthing/server";
 import { genUploader } from "uploadthing/client";
-import { createLogFileRouter, uploadDenied, type CompletedLogFile, type LogFileRouter, type Uploader } from "../../lib/uploads/file-router";
+import { createLogFileRouter, isStoredFileUrl, memoryGrantStore, uploadDenied, type CompletedLogFile, type LogFileRouter, type Uploader } from "../../lib/uploads/file-router";
 import { makeUploadthingToken, startUploadFake, type UploadFake } from "../../workers/services/upload-fake";
 import { FetchBackedXhr, serve } from "./helpers/upload-harness";
 
@@ -35,8 +35,11 @@ let completed: Array<{ metadata: Uploader; file: CompletedLogFile }> = [];
 let nextSessionId = 100;
 const originalXhr = (globalThis as Record<string, unknown>).XMLHttpRequest;
 
+const grants = memoryGrantStore();
 const router = createLogFileRouter({
   maxFileSize: "1MB",
+  grants,
+  fileOrigins: () => [fake.url],
   authorize(req) {
     if (req.headers.get("x-test-user") === "anonymous") throw uploadDenied("Sign in to upload");
     if (req.headers.get("x-test-user") === "outsider") throw uploadDenied("Not a member of this team");
@@ -50,6 +53,16 @@ const router = createLogFileRouter({
     return { sessionId: nextSessionId++ };
   },
 });
+
+const postCallback = (payload: string, signature: string) =>
+  fetch(`${app.url}?slug=logFile`, { method: "POST", headers: { "content-type": "application/json", "uploadthing-hook": "callback", "x-uploadthing-signature": signature }, body: payload });
+async function waitFor(cond: () => boolean, ms = 5_000) {
+  const deadline = Date.now() + ms;
+  while (!cond()) {
+    if (Date.now() > deadline) throw new Error("condition not met in time");
+    await new Promise((r) => setTimeout(r, 25));
+  }
+}
 
 function client(url: string) {
   return genUploader<LogFileRouter>({ url, package: "lapbench-contract-test", fetch: (...a) => globalThis.fetch(...a) });
@@ -95,6 +108,9 @@ describe("upload contract: real SDK ↔ local upload fake", () => {
 
     const served = await fetch(result.ufsUrl);
     expect(served.status).toBe(200);
+    // A download, never rendered by the browser as the type it guesses.
+    expect(served.headers.get("content-disposition")).toBe(`attachment; filename*=UTF-8''${encodeURIComponent(file.name)}`);
+    expect(served.headers.get("x-content-type-options")).toBe("nosniff");
     const bytes = await served.arrayBuffer();
     expect(sha256(bytes)).toBe(sha256(await file.arrayBuffer()));
     // fileHash is the md5 of the content, as the hosted service reports it.
@@ -148,23 +164,62 @@ describe("upload contract: real SDK ↔ local upload fake", () => {
   });
 
   it("route handler rejects a completion callback with a bad signature, accepts a good one", async () => {
+    const grant = await grants.issue({ userId: "user-7", teamId: "team-3" });
     const payload = JSON.stringify({
       status: "uploaded",
-      file: { key: "forgedkey123", name: "forged.csv", size: 3, type: "text/csv", customId: null, url: "x", appUrl: "x", ufsUrl: `${fake.url}/f/forgedkey123`, fileHash: "00" },
+      file: { key: "signedkey123", name: "signed.csv", size: 3, type: "text/csv", customId: null, url: "x", appUrl: "x", ufsUrl: `${fake.url}/f/signedkey123`, fileHash: "00" },
       origin: fake.url,
-      metadata: { userId: "attacker", teamId: "team-3" },
+      metadata: { grant },
     });
-    const post = (signature: string) =>
-      fetch(`${app.url}?slug=logFile`, { method: "POST", headers: { "content-type": "application/json", "uploadthing-hook": "callback", "x-uploadthing-signature": signature }, body: payload });
-
-    const forged = await post(signBody(payload, "sk_someone_elses_key"));
+    const forged = await postCallback(payload, signBody(payload, "sk_someone_elses_key"));
     expect(forged.status).toBe(400);
     expect(await forged.json()).toEqual({ message: "Invalid signature" });
     expect(completed).toEqual([]);
 
-    const genuine = await post(signBody(payload, apiKey));
+    const genuine = await postCallback(payload, signBody(payload, apiKey));
     expect(genuine.status).toBe(200);
-    expect(completed.map((c) => c.metadata.userId)).toEqual(["attacker"]);
+    await waitFor(() => completed.length === 1);
+    expect(completed.map((c) => c.metadata)).toEqual([{ userId: "user-7", teamId: "team-3" }]);
+  });
+
+  it("a correctly signed callback cannot choose the team or user, reuse a grant, or point the server at another host", async () => {
+    const body = (metadata: Record<string, unknown>, ufsUrl: string, key = "plantedkey1") =>
+      JSON.stringify({
+        status: "uploaded",
+        file: { key, name: "planted.csv", size: 3, type: "text/csv", customId: null, url: ufsUrl, appUrl: ufsUrl, ufsUrl, fileHash: "00" },
+        origin: fake.url,
+        metadata,
+      });
+    const send = (b: string) => postCallback(b, signBody(b, apiKey));
+
+    // Team and user in the body, no grant: refused (before, this planted a session in team-3).
+    await send(body({ userId: "attacker", teamId: "team-3" }, `${fake.url}/f/plantedkey1`));
+    // A grant, but the file is elsewhere (the server would fetch any URL): refused, grant kept.
+    const grant = await grants.issue({ userId: "user-7", teamId: "team-3" });
+    for (const url of ["http://169.254.169.254/f/plantedkey1", `${fake.url}/f/anotherkey`, `${fake.url}/f/plantedkey1?x=1`, `http://user:pw@${new URL(fake.url).host}/f/plantedkey1`]) {
+      await send(body({ grant }, url));
+    }
+    await new Promise((r) => setTimeout(r, 300)); // onUploadComplete runs after the reply
+    expect(completed).toEqual([]);
+
+    // The grant with the right file: accepted, and the team comes from the grant, not the body.
+    await send(body({ grant, teamId: "team-other", userId: "attacker" }, `${fake.url}/f/plantedkey1`));
+    await waitFor(() => completed.length === 1);
+    expect(completed[0].metadata).toEqual({ userId: "user-7", teamId: "team-3" });
+    // Used once: a replay of the same grant is refused.
+    await send(body({ grant }, `${fake.url}/f/plantedkey2`, "plantedkey2"));
+    await new Promise((r) => setTimeout(r, 300));
+    expect(completed).toHaveLength(1);
+  });
+
+  it("accepts file URLs only on the storage origins, at /f/<key>", () => {
+    const origins = ["http://127.0.0.1:4100"];
+    expect(isStoredFileUrl("http://127.0.0.1:4100/f/abc", "abc", origins)).toBe(true);
+    expect(isStoredFileUrl("http://127.0.0.1:4101/f/abc", "abc", origins)).toBe(false);
+    expect(isStoredFileUrl("http://localhost:4100/f/abc", "abc", origins)).toBe(false);
+    expect(isStoredFileUrl("file:///etc/passwd", "abc", origins)).toBe(false);
+    expect(isStoredFileUrl("http://127.0.0.1:4100/f/abc/../../admin", "abc", origins)).toBe(false);
+    expect(isStoredFileUrl("not a url", "abc", origins)).toBe(false);
   });
 
   it("presigned URLs: tampering is refused, and an interrupted upload resumes from the HEAD offset", async () => {

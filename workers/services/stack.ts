@@ -4,16 +4,22 @@
  * the demo seed, the ingest worker and the Next.js server. Each child is killed on stop.
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { randomBytes } from "node:crypto";
 import fs from "node:fs";
 import net from "node:net";
 import path from "node:path";
 import { config } from "../../lib/config";
 import { startMariadb, ensureDatabase } from "./mariadb";
+import { QueryTypes } from "sequelize";
 import { createSequelize } from "../../models/db";
 import { migrateUp } from "../../models/migrate";
+import { loadOrCreateSecretFile, resolveAuthSecret } from "../../lib/security/auth-secret";
 
-export const FAKE_UPLOAD_API_KEY = "sk_lapbench_local_fake_service_key";
 export const FAKE_UPLOAD_APP_ID = "lapbench-local";
+/** Where the per-install upload API key is kept (in the git-ignored data folder). */
+export const UPLOAD_KEY_FILE = "upload-api-key";
+/** Loaded into the web server: believe X-Forwarded-For only from TRUSTED_PROXY (see the file). */
+export const PEER_ADDRESS_PRELOAD = path.join(config.root, "workers", "services", "peer-address-preload.mjs");
 
 export interface StackOptions {
   dbName: string;
@@ -23,7 +29,8 @@ export interface StackOptions {
   dataDir: string;
   build: boolean;
   dev?: boolean;
-  seed: boolean;
+  /** Seed the invented demo team: always (`--demo`, tests), or only into an empty database. */
+  seed: boolean | "if-empty";
   worker: boolean;
   quiet?: boolean;
   /** Added to every child's environment (e.g. test-only settings). */
@@ -33,11 +40,20 @@ export interface StackOptions {
 export interface RunningStack {
   env: NodeJS.ProcessEnv;
   appUrl: string;
+  /** The demo team was seeded by this start. */
+  seeded: boolean;
   stop(): Promise<void>;
 }
 
-function uploadToken(): string {
-  return Buffer.from(JSON.stringify({ apiKey: FAKE_UPLOAD_API_KEY, appId: FAKE_UPLOAD_APP_ID, regions: ["local"] })).toString("base64");
+/**
+ * UPLOADTHING_TOKEN from the environment when set; otherwise one made from an API key generated
+ * on first start and kept in the data folder (a key known from the code would let anyone sign
+ * upload callbacks).
+ */
+export function uploadToken(dataDir: string, env: NodeJS.ProcessEnv = process.env): string {
+  if (env.UPLOADTHING_TOKEN) return env.UPLOADTHING_TOKEN;
+  const apiKey = loadOrCreateSecretFile(dataDir, UPLOAD_KEY_FILE, () => `sk_${randomBytes(32).toString("hex")}`);
+  return Buffer.from(JSON.stringify({ apiKey, appId: FAKE_UPLOAD_APP_ID, regions: ["local"] })).toString("base64");
 }
 
 export function stackEnv(o: StackOptions): NodeJS.ProcessEnv {
@@ -49,13 +65,16 @@ export function stackEnv(o: StackOptions): NodeJS.ProcessEnv {
     LAPBENCH_DATA_DIR: o.dataDir,
     LAPBENCH_DB_NAME: o.dbName,
     PORT: String(o.appPort),
-    BETTER_AUTH_URL: appUrl,
+    BETTER_AUTH_URL: process.env.BETTER_AUTH_URL ?? appUrl,
+    // From the environment, or generated once per install and kept in the data folder.
+    BETTER_AUTH_SECRET: resolveAuthSecret(process.env, o.dataDir),
+    HOST: config.host,
     LAPBENCH_APP_URL: appUrl,
     LAPBENCH_SMTP_PORT: String(o.mailPort),
     LAPBENCH_UPLOAD_PORT: String(o.uploadPort),
-    // The captured-mail page is for local demo and development only.
-    LAPBENCH_MAIL_PAGE: "1",
-    UPLOADTHING_TOKEN: uploadToken(),
+    // The captured-mail page: only with the local mail service (and only to this machine).
+    LAPBENCH_MAIL_PAGE: config.smtp.host === "127.0.0.1" || config.smtp.host === "localhost" ? "1" : "0",
+    UPLOADTHING_TOKEN: uploadToken(o.dataDir),
     UPLOADTHING_INGEST_URL: `http://127.0.0.1:${o.uploadPort}`,
     UPLOADTHING_API_URL: `http://127.0.0.1:${o.uploadPort}`,
     UPLOADTHING_CALLBACK_URL: `${appUrl}/api/uploadthing`,
@@ -164,6 +183,12 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     const s = createSequelize(o.dbName);
     say("migrating");
     await migrateUp(s, { quiet: true });
+    // Demo sign-ins (with a published password) only when asked for, or into a fresh install.
+    let seed = o.seed === true;
+    if (o.seed === "if-empty") {
+      const [{ n }] = await s.query<{ n: number }>("SELECT COUNT(*) AS n FROM user", { type: QueryTypes.SELECT });
+      seed = Number(n) === 0;
+    }
     await s.close();
 
     say(`starting the mail fake on 127.0.0.1:${o.mailPort} and the upload fake on 127.0.0.1:${o.uploadPort}`);
@@ -172,7 +197,7 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     children.push(mail, upload);
     await Promise.all([waitForPort(o.mailPort, 30_000, mail), waitForPort(o.uploadPort, 30_000, upload)]);
 
-    if (o.seed) {
+    if (seed) {
       say("seeding the demo team");
       const r = spawnSync(process.execPath, tsxArgs("workers/seed.ts"), { cwd: config.root, env, stdio: o.quiet ? "pipe" : "inherit" });
       if (r.status !== 0) throw new Error(`seeding failed: ${r.stderr?.toString() ?? ""}`);
@@ -188,17 +213,17 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
       children.push(spawnLogged("worker", tsxArgs("workers/ingest-worker.ts"), env, logDir, !!o.quiet));
     }
 
-    say(`starting the web app on http://localhost:${o.appPort}`);
+    say(`starting the web app on http://localhost:${o.appPort} (listening on ${env.HOST})`);
     const web = spawnLogged(
       "web",
-      [nextCli(), o.dev ? "dev" : "start", "-p", String(o.appPort)],
+      ["--import", PEER_ADDRESS_PRELOAD, nextCli(), o.dev ? "dev" : "start", "-p", String(o.appPort), "-H", String(env.HOST)],
       { ...env, NODE_ENV: o.dev ? "development" : "production" },
       logDir,
       !!o.quiet,
     );
     children.push(web);
     await waitForHttp(`http://localhost:${o.appPort}/sign-in`, o.dev ? 180_000 : 60_000, web);
-    return { env, appUrl: `http://localhost:${o.appPort}`, stop };
+    return { env, appUrl: `http://localhost:${o.appPort}`, seeded: seed, stop };
   } catch (e) {
     await stop();
     throw e;

@@ -299,7 +299,9 @@ export async function startUploadFake(opts: UploadFakeOptions): Promise<UploadFa
       res.writeHead(200, {
         "content-type": meta.type || "application/octet-stream",
         "content-length": String(meta.size),
-        "content-disposition": `inline; filename*=UTF-8''${encodeURIComponent(meta.name)}`,
+        // Served as a download, never rendered: an uploaded "log" could be HTML or script.
+        "content-disposition": `attachment; filename*=UTF-8''${encodeURIComponent(meta.name)}`,
+        "x-content-type-options": "nosniff",
       });
       if (req.method === "HEAD") return void res.end();
       return void fs.createReadStream(filePath(key)).pipe(res);

@@ -5,6 +5,7 @@ import { auth } from "@/lib/auth/auth";
 import { getInvitation } from "@/lib/data/team";
 import { Logo } from "@/components/ui/logo";
 import { AcceptInvitationButton } from "@/components/team/accept-invitation";
+import { ResendVerificationButton } from "@/components/auth/resend-verification";
 
 export const metadata: Metadata = { title: "Team invitation" };
 
@@ -34,6 +35,15 @@ export default async function AcceptInvitationPage({ params }: { params: Promise
       <p role="alert" className="text-alert-400">
         This invitation is for {invitation.email}, but you are signed in as {session.user.email}. Sign out and sign in with the invited address.
       </p>
+    );
+  } else if (!session.user.emailVerified) {
+    body = (
+      <div className="space-y-3" data-testid="verify-first">
+        <p>
+          Confirm your address first: we sent a link to <strong>{invitation.email}</strong>. Open it, then come back here.
+        </p>
+        <ResendVerificationButton email={invitation.email} callbackURL={here} />
+      </div>
     );
   } else {
     body = <AcceptInvitationButton invitationId={invitation.id} />;

@@ -1,5 +1,7 @@
 import type { Metadata } from "next";
+import { headers } from "next/headers";
 import { notFound } from "next/navigation";
+import { mayReadCapturedMail } from "@/lib/mail/mail-page-access";
 import { listCapturedMail } from "@/lib/mail/captured-mail";
 import { Logo } from "@/components/ui/logo";
 
@@ -8,10 +10,11 @@ export const dynamic = "force-dynamic";
 
 /**
  * The local SMTP fake's inbox, so a person trying Lapbench locally can follow invitation and
- * reset links. Only served when the start script turned the fake on (LAPBENCH_MAIL_PAGE=1).
+ * reset links. Only served to this machine, and only while the local mail service is in use
+ * (lib/mail/mail-page-access.ts); anyone else gets a 404.
  */
 export default async function DevMailPage() {
-  if (process.env.LAPBENCH_MAIL_PAGE !== "1") notFound();
+  if (!mayReadCapturedMail(await headers())) notFound();
   const mails = await listCapturedMail();
   return (
     <main className="mx-auto max-w-4xl px-6 py-10">

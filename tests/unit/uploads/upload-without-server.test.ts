@@ -7,7 +7,7 @@ import { http, HttpResponse } from "msw";
 import { setupServer } from "msw/node";
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { createRouteHandler, UTApi } from "uploadthing/server";
-import { createLogFileRouter, uploadDenied, type CompletedLogFile, type Uploader } from "../../../lib/uploads/file-router";
+import { createLogFileRouter, memoryGrantStore, uploadDenied, type CompletedLogFile, type Uploader } from "../../../lib/uploads/file-router";
 import { makeUploadthingToken } from "../../../workers/services/upload-fake";
 
 const INGEST = "http://ingest.lapbench.test";
@@ -35,7 +35,10 @@ const service = setupServer(
   ),
 );
 
+const grants = memoryGrantStore();
 const router = createLogFileRouter({
+  grants,
+  fileOrigins: () => [INGEST],
   authorize(req) {
     if (req.headers.get("x-test-user") === "outsider") throw uploadDenied("Not a member of this team");
     return { userId: "user-1", teamId: "team-9" };
@@ -80,11 +83,12 @@ function callback(payload: string, signature: string) {
   );
 }
 
-const uploadedPayload = JSON.stringify({
+// The service returns the metadata the app registered: only the id of the server-side upload grant.
+const uploadedPayload = (grant: string) => JSON.stringify({
   status: "uploaded",
   file: { key: "abc123", name: "fp1.csv", size: 1234, type: "text/csv", customId: null, url: `${INGEST}/f/abc123`, appUrl: `${INGEST}/f/abc123`, ufsUrl: `${INGEST}/f/abc123`, fileHash: "d41d8cd98f00b204e9800998ecf8427e" },
   origin: INGEST,
-  metadata: { userId: "user-1", teamId: "team-9" },
+  metadata: { grant },
 });
 
 describe("log-file route handler with msw as the upload service", () => {
@@ -105,7 +109,8 @@ describe("log-file route handler with msw as the upload service", () => {
       {
         path: "/route-metadata",
         apiKey,
-        body: { fileKeys: [presigned.key], metadata: { userId: "user-1", teamId: "team-9" }, isDev: false, callbackUrl: APP, callbackSlug: "logFile", awaitServerData: true },
+        // Team and user stay on the server: the service only carries the grant's random id.
+        body: { fileKeys: [presigned.key], metadata: { grant: expect.stringMatching(/^grant-/) }, isDev: false, callbackUrl: APP, callbackSlug: "logFile", awaitServerData: true },
       },
     ]);
   });
@@ -129,7 +134,8 @@ describe("log-file route handler with msw as the upload service", () => {
   });
 
   it("signed completion callback runs onComplete and reports serverData to the service", async () => {
-    const res = await callback(uploadedPayload, hmac(uploadedPayload));
+    const payload = uploadedPayload(await grants.issue({ userId: "user-1", teamId: "team-9" }));
+    const res = await callback(payload, hmac(payload));
     expect(res.status).toBe(200);
     expect(completed).toEqual([
       {
@@ -141,8 +147,9 @@ describe("log-file route handler with msw as the upload service", () => {
   });
 
   it("completion callback with a wrong or missing signature is rejected without running onComplete", async () => {
-    for (const signature of [hmac(uploadedPayload, "sk_not_our_key"), ""]) {
-      const res = await callback(uploadedPayload, signature);
+    const payload = uploadedPayload(await grants.issue({ userId: "user-1", teamId: "team-9" }));
+    for (const signature of [hmac(payload, "sk_not_our_key"), ""]) {
+      const res = await callback(payload, signature);
       expect(res.status).toBe(400);
       expect(await res.json()).toEqual({ message: "Invalid signature" });
     }

@@ -88,12 +88,17 @@ async function loop() {
       log(`job ${job.id} error: ${msg}`);
       // The error may be the database itself going away (restart, crash): keep trying to record the
       // retry while it comes back, instead of letting the worker die with the job marked running.
+      // The session first, while the job is still ours (running, locked by this worker): once the
+      // job is back in the queue another worker may take it, and a late status write here would
+      // overwrite that worker's.
+      const last = job.attempts >= job.maxAttempts;
       const recorded = await untilDatabaseAnswers(`recording the retry of job ${job.id}`, async () => {
-        const r = await retryJob(sequelize, job, msg);
-        if (r === "failed" && job.sessionId)
-          await RideSession.update({ status: "failed", statusReason: `Reading this file failed after ${job.attempts} attempts: ${msg}` }, { where: { id: job.sessionId } });
-        else if (job.sessionId) await RideSession.update({ status: "queued", progress: 0 }, { where: { id: job.sessionId } });
-        return r;
+        if (job.sessionId)
+          await RideSession.update(
+            last ? { status: "failed", statusReason: `Reading this file failed after ${job.attempts} attempts: ${msg}` } : { status: "queued", progress: 0 },
+            { where: { id: job.sessionId } },
+          );
+        return retryJob(sequelize, job, msg);
       });
       log(`job ${job.id} ${recorded ?? "left running; the stale-job recovery will requeue it"}`);
     } finally {

@@ -1,6 +1,6 @@
 /**
  * `npm run bench`: each benchmark as its own process, one after the other (they would otherwise
- * share the 2 cores and skew each other): ingest, then compare when tests/bench/compare.ts exists.
+ * share the 2 cores and skew each other): ingest, then compare, then load (those present).
  * Arguments are passed on to every benchmark. Exits non-zero only when a benchmark crashes;
  * a missed target is printed, not failed.
  */
@@ -10,7 +10,7 @@ import path from "node:path";
 
 const here = __dirname;
 const root = path.resolve(here, "../..");
-const benches = ["ingest.ts", "compare.ts"].filter((f) => fs.existsSync(path.join(here, f)));
+const benches = ["ingest.ts", "compare.ts", "load.ts"].filter((f) => fs.existsSync(path.join(here, f)));
 let failed = 0;
 for (const b of benches) {
   console.log(`\n=== tests/bench/${b} ===\n`);

@@ -111,6 +111,9 @@ describe("MariaDB killed (SIGKILL) and restarted", () => {
       const killedAt = statuses.length;
       await waitFor(() => statuses.length >= killedAt + 3, 30_000, "page loads during the outage");
       const duringOutage = statuses.slice(killedAt + 1); // the first may have been answered before the kill
+      // Keep the server down until the worker has met the outage (its pause ends, its next write fails).
+      await waitFor(() => /job \d+ error/.test(worker.output.join("")) || worker.exitCode !== null, 60_000, "the worker to meet the outage");
+      await new Promise((r) => setTimeout(r, 1000));
       await db.restart();
 
       // InnoDB crash recovery rolled the half-written job back: no channels, not ready.

@@ -58,7 +58,7 @@ export function SessionTrack({ sessionId, panel, canEdit, defaultName }: { sessi
       {panel.refused && (
         <p role="status" className="rounded-md border border-signal-500/50 bg-signal-500/10 px-3 py-2 text-sm text-ink-100" data-testid="track-refused">
           Not put on <span className="font-semibold">{panel.refused.name}</span>
-          {panel.refused.via === "event" ? " (the event's track)" : ""}: this log's positions are <span className="num font-semibold">{km(panel.refused.distanceM)}</span> from it.
+          {panel.refused.via === "event" ? " (the event's track)" : ""}: this log&apos;s positions are <span className="num font-semibold">{km(panel.refused.distanceM)}</span> from it.
           A session goes on a track only within 2 km of its GPS.
         </p>
       )}

@@ -5,7 +5,7 @@
  * own progress bar. One file → on to its session (mapping screen if its columns need mapping);
  * several → a link per session.
  */
-import { useCallback, useEffect, useRef, useState } from "react";
+import { useCallback, useRef, useState, useSyncExternalStore } from "react";
 import { useRouter } from "next/navigation";
 import Link from "next/link";
 import { useDropzone } from "@uploadthing/react";
@@ -21,6 +21,8 @@ interface Item {
   state: ItemState;
   message?: string;
   href?: string;
+  /** A failure a second try may fix (not a refusal of role, type or size). */
+  canRetry?: boolean;
 }
 
 function formatSize(bytes: number): string {
@@ -50,13 +52,14 @@ async function sessionTarget(sessionId: number): Promise<string> {
   return `/sessions/${sessionId}`;
 }
 
+const noSubscription = () => () => {};
+
 export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extensions: readonly string[] }) {
   const router = useRouter();
   const [items, setItems] = useState<Item[]>([]);
   const [busy, setBusy] = useState(false);
   // Files dropped before hydration would be lost: say when the zone listens (tests wait for it too).
-  const [ready, setReady] = useState(false);
-  useEffect(() => setReady(true), []);
+  const ready = useSyncExternalStore(noSubscription, () => true, () => false);
   const current = useRef<string | null>(null);
   const lastError = useRef<{ code?: string; message?: string } | null>(null);
 
@@ -83,7 +86,7 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
       current.current = key;
       lastError.current = null;
       retryable.current.delete(key);
-      patch(key, { state: "uploading", progress: 0, message: undefined });
+      patch(key, { state: "uploading", progress: 0, message: undefined, canRetry: false });
       const res = await startUpload([file]).catch((e: unknown) => {
         lastError.current ??= { message: e instanceof Error ? e.message : String(e) };
         return undefined;
@@ -92,8 +95,9 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
       if (!sessionId) {
         const err: { code?: string; message?: string } = lastError.current ?? {};
         // A refusal (role, type, size) stays refused; anything else may pass on a second try.
-        if (err.code !== "FORBIDDEN" && err.code !== "BAD_REQUEST" && err.code !== "TOO_LARGE") retryable.current.set(key, file);
-        patch(key, { state: "error", message: explain(err, file, maxBytes) });
+        const canRetry = err.code !== "FORBIDDEN" && err.code !== "BAD_REQUEST" && err.code !== "TOO_LARGE";
+        if (canRetry) retryable.current.set(key, file);
+        patch(key, { state: "error", message: explain(err, file, maxBytes), canRetry });
         return null;
       }
       const href = await sessionTarget(sessionId);
@@ -204,7 +208,7 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
                 )}
                 {i.state === "error" && <span className="text-alert-400">{i.message}</span>}
               </p>
-              {i.state === "error" && retryable.current.has(i.key) && (
+              {i.state === "error" && i.canRetry && (
                 <button
                   type="button"
                   onClick={() => void retry(i.key)}

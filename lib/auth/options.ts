@@ -38,7 +38,7 @@ async function mail(to: string, subject: string, text: string, linkUrl: string, 
 
 // Secure cookies whenever the public URL (BETTER_AUTH_URL) is https. The demo runs `next start`
 // on http://localhost, where a Secure cookie would never come back and nobody could stay signed in.
-export const useSecureCookies = (appUrl: string = config.appUrl) => appUrl.startsWith("https://");
+export const secureCookiesFor = (appUrl: string = config.appUrl) => appUrl.startsWith("https://");
 
 export const authOptions = {
   appName: "Lapbench",
@@ -97,7 +97,7 @@ export const authOptions = {
     },
   },
   advanced: {
-    useSecureCookies: useSecureCookies(),
+    useSecureCookies: secureCookiesFor(),
     // The client address is X-Forwarded-For as rewritten in the web server process
     // (workers/services/peer-address.mjs): the TCP peer, or the client behind a TRUSTED_PROXY.
     ipAddress: { ipAddressHeaders: ["x-forwarded-for"] },

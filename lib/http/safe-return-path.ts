@@ -7,7 +7,6 @@
 export function safeReturnPath(next: string | null | undefined, fallback = "/"): string {
   if (typeof next !== "string" || next.length === 0 || next.length > 2048) return fallback;
   if (!next.startsWith("/") || next.startsWith("//")) return fallback;
-  // eslint-disable-next-line no-control-regex
   if (/[\\\u0000-\u001f\u007f]/.test(next)) return fallback;
   const base = "http://return-path.invalid";
   let u: URL;

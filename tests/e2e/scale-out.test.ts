@@ -35,7 +35,7 @@ import fs from "node:fs";
 const dbName = `lapbench_scale_${process.pid}`;
 const dataDir = path.join(ROOT, ".data", `scale-${process.pid}`);
 let s: Sequelize;
-let apps: { url: string; proc: Proc }[] = [];
+const apps: { url: string; proc: Proc }[] = [];
 let workers: Proc[] = [];
 let services: Proc[] = [];
 let team: Awaited<ReturnType<typeof createTeam>>;

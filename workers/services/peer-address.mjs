@@ -71,14 +71,13 @@ export function rewriteRequest(req, trusted) {
 export function install(env = process.env) {
   const trusted = parseTrustedProxies(env.TRUSTED_PROXY);
   const original = http.createServer;
-  // @ts-ignore -- same signature, listener wrapped
+  // same signature, listener wrapped
   http.createServer = function createServer(...args) {
     const i = args.findIndex((a) => typeof a === "function");
     if (i >= 0) {
       const listener = args[i];
       args[i] = function (req, res) { rewriteRequest(req, trusted); return listener.call(this, req, res); };
     }
-    // @ts-ignore
     return original.apply(this, args);
   };
   globalThis.__lapbenchClientAddress = true;

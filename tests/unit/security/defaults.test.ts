@@ -10,7 +10,7 @@ import { describe, expect, it } from "vitest";
 import { authSecretProblem, assertProductionAuthSecret, DEV_AUTH_SECRET, resolveAuthSecret } from "@/lib/security/auth-secret";
 import { contentSecurityPolicy, securityHeaders } from "@/lib/security/headers";
 import { safeReturnPath } from "@/lib/http/safe-return-path";
-import { useSecureCookies, authOptions, SESSION_EXPIRES_S } from "@/lib/auth/options";
+import { secureCookiesFor, authOptions, SESSION_EXPIRES_S } from "@/lib/auth/options";
 import { isLocalMailService, mayReadCapturedMail } from "@/lib/mail/mail-page-access";
 import { isLoopbackAddress } from "@/lib/security/client-address";
 import { uploadToken } from "../../../workers/services/stack";
@@ -110,8 +110,8 @@ describe("sign-in return path", () => {
 
 describe("cookies and sessions", () => {
   it("Secure cookies exactly when BETTER_AUTH_URL is https", () => {
-    expect(useSecureCookies("https://lapbench.example")).toBe(true);
-    expect(useSecureCookies("http://localhost:3000")).toBe(false);
+    expect(secureCookiesFor("https://lapbench.example")).toBe(true);
+    expect(secureCookiesFor("http://localhost:3000")).toBe(false);
   });
   it("sessions expire after 7 days; a password reset revokes them; invitations need a confirmed address", () => {
     expect(SESSION_EXPIRES_S).toBe(7 * 24 * 3600);

@@ -43,6 +43,10 @@ async function main() {
   dropDatabase(dbName);
   ensureDatabase(dbName);
   process.env.LAPBENCH_DB_NAME = dbName;
+  // lib/config read the name when workers/services/mariadb was imported above: point it at the
+  // scratch database too, or the run would write into the app's own database.
+  const { config } = await import("../../lib/config");
+  config.db.name = dbName;
   try {
     await bench(dbName);
   } finally {

@@ -105,6 +105,38 @@ export function resampleDecimate(
   return out;
 }
 
+/** The decimation half alone, for a series already on the grid (the Running gap). */
+export function markMinMax(values: ArrayLike<number>, cols: Int32Array, keep: Uint8Array): void {
+  const m = Math.min(values.length, cols.length);
+  if (m === 0) return;
+  let col = -1;
+  let minG = -1;
+  let maxG = -1;
+  let nanG = -1;
+  const flush = () => {
+    if (minG >= 0) keep[minG] = 1;
+    if (maxG >= 0) keep[maxG] = 1;
+    if (nanG >= 0) keep[nanG] = 1;
+  };
+  for (let g = 1; g < m - 1; g++) {
+    if (cols[g] !== col) {
+      flush();
+      col = cols[g];
+      minG = maxG = nanG = -1;
+    }
+    const v = values[g];
+    if (v !== v) {
+      if (nanG < 0) nanG = g;
+    } else {
+      if (minG < 0 || v < values[minG]) minG = g;
+      if (maxG < 0 || v > values[maxG]) maxG = g;
+    }
+  }
+  flush();
+  keep[0] = 1;
+  keep[m - 1] = 1;
+}
+
 /** Grid indices marked in `keep`, ascending. */
 export function keptIndices(keep: Uint8Array): Uint32Array {
   let count = 0;

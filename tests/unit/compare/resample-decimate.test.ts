@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { gather, gridColumns, keptIndices, resampleDecimate } from "@/lib/compare/resample-decimate";
+import { gather, gridColumns, keptIndices, markMinMax, resampleDecimate } from "@/lib/compare/resample-decimate";
 import { decimateMinMax } from "@/lib/compare/decimate-min-max";
 import { resampleOnDistance } from "@/lib/compare/resample-on-distance";
 
@@ -69,6 +69,10 @@ describe("resampleDecimate: decimation in the same pass", () => {
       for (const x of decimateMinMax(grid, out, width).x) expected.add(x);
     }
     expect(Array.from(keptIndices(keep))).toEqual([...expected].sort((a, b) => a - b));
+    // markMinMax, the decimation half alone, keeps decimateMinMax's points of a series with NaN inside.
+    const alone = new Uint8Array(m);
+    markMinMax(series[0], cols, alone);
+    expect(Array.from(keptIndices(alone))).toEqual(Array.from(decimateMinMax(grid, series[0], width).x));
     expect(keptIndices(keep).length).toBeLessThanOrEqual(3 * (3 * width) + 2);
   });
 

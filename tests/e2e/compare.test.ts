@@ -95,9 +95,14 @@ describe("Compare from the lap table", () => {
     const panes = await page.getByTestId("panes").locator('[data-testid^="pane-"]').evaluateAll((els) => els.map((e) => e.getAttribute("data-testid")));
     expect(panes).toEqual(["pane-inputs", "pane-speed", "pane-chassis", "pane-engine"]);
     // Inputs: throttle up, front and rear brake mirrored down on their own (right) axis.
-    await expect(page.getByTestId("pane-inputs").getByText("throttle %").count()).resolves.toBe(1);
-    await expect(page.getByTestId("pane-inputs").getByText(/^brake bar$/).count()).resolves.toBe(1);
-    await expect(page.getByTestId("pane-engine").getByText(/^gear$/).count()).resolves.toBe(1);
+    expect(await page.getByTestId("pane-inputs").getAttribute("data-axes")).toBe("thr:left brk:right:down");
+    // Two laps × throttle, front brake, rear brake: the brakes share the mirrored scale.
+    expect(await page.getByTestId("pane-inputs").getAttribute("data-series-scales")).toBe("thr thr brk brk brk brk");
+    expect(await page.getByTestId("pane-speed").getAttribute("data-series-scales")).toBe("y y y y");
+    expect(await page.getByTestId("pane-chassis").getAttribute("data-series-scales")).toBe("y y y y");
+    // Engine speed on the left axis, gear steps on a second axis on the right.
+    expect(await page.getByTestId("pane-engine").getAttribute("data-axes")).toBe("y:left gear:right");
+    expect(await page.getByTestId("pane-engine").getAttribute("data-series-scales")).toBe("y y gear gear");
     await page.getByTestId("pane-gap").waitFor({ state: "detached" });
   });
 
@@ -159,7 +164,8 @@ describe("Compare from the lap table", () => {
   });
 
   it("the Running gap pane is an option, and its chips are the served gap", async () => {
-    await page.getByLabel("Running gap pane").check();
+    // The box follows the URL, so click and wait for the pane rather than for the box.
+    await page.getByLabel("Running gap pane").click();
     await page.getByTestId("pane-gap").waitFor();
     const panes = await page.getByTestId("panes").locator('[data-testid^="pane-"]').evaluateAll((els) => els.map((e) => e.getAttribute("data-testid")));
     expect(panes[0]).toBe("pane-gap");
@@ -172,7 +178,7 @@ describe("Compare from the lap table", () => {
     const { meta, arrays } = await servedSeries(page);
     const gk = nearestIndex(arrays[meta.gap!.x], x);
     expect(Number(await page.getByTestId("chip-pane-gap-0").getAttribute("data-si"))).toBeCloseTo(arrays[meta.gap!.series[1]!][gk], 5);
-    await page.getByLabel("Running gap pane").uncheck();
+    await page.getByLabel("Running gap pane").click();
     await page.getByTestId("pane-gap").waitFor({ state: "detached" });
   });
 

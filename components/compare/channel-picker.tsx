@@ -2,11 +2,12 @@
 /** Which channels get a pane. */
 import { ROLE_LABEL, type ChannelRole } from "@/lib/channels/roles";
 
+/** In the order of the default panes: Inputs, Speed, Chassis, Engine speed, then the rest. */
 export const COMPARE_ROLES: ChannelRole[] = [
-  "speed_front", "speed_rear", "gps_speed", "throttle", "brake_front", "brake_rear", "engine_rpm", "gear",
-  "lean_angle", "fork_travel", "shock_travel", "accel_long", "accel_lat",
+  "throttle", "brake_front", "brake_rear", "speed_front", "speed_rear", "gps_speed", "fork_travel", "shock_travel",
+  "engine_rpm", "gear", "lean_angle", "accel_long", "accel_lat",
 ];
-export const DEFAULT_ROLES: ChannelRole[] = ["speed_front", "throttle", "brake_front", "engine_rpm", "gear", "lean_angle"];
+export const DEFAULT_ROLES: ChannelRole[] = ["throttle", "brake_front", "brake_rear", "speed_front", "speed_rear", "fork_travel", "shock_travel", "engine_rpm", "gear"];
 
 export function ChannelPicker({ selected, onChange }: { selected: string[]; onChange: (roles: string[]) => void }) {
   return (

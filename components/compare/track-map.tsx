@@ -6,20 +6,14 @@
  */
 import { useEffect, useMemo, useRef } from "react";
 import { interpolateAt } from "./series-lookup";
+import { rampColour } from "./lap-colours";
 
-/** Our ramp for low → high values: deep blue, teal, amber, red. */
-const RAMP = [
-  [59, 91, 219],
-  [43, 179, 166],
-  [245, 158, 27],
-  [239, 79, 69],
-] as const;
-
-function rampColour(f: number): string {
-  const t = Math.min(1, Math.max(0, f)) * (RAMP.length - 1);
-  const i = Math.min(RAMP.length - 2, Math.floor(t));
-  const u = t - i;
-  const c = RAMP[i].map((v, k) => Math.round(v + (RAMP[i + 1][k] - v) * u));
+/** Even pace in graphite; time gained shades towards teal, time lost towards amber. */
+function gainColour(v: number, maxAbs: number): string {
+  const f = Math.min(1, Math.abs(v) / Math.max(1e-12, maxAbs));
+  const to = v < 0 ? [79, 209, 197] : [245, 158, 27];
+  const from = [58, 68, 80];
+  const c = from.map((a, k) => Math.round(a + (to[k] - a) * f));
   return `rgb(${c[0]},${c[1]},${c[2]})`;
 }
 
@@ -32,12 +26,17 @@ export interface TrackMapProps {
   values: ArrayLike<number> | null;
   valueLabel: string;
   cursorX: number | null;
+  /** Values are time lost (+) or gained (−) per point: a diverging scale around even. */
+  diverging?: boolean;
+  size?: number;
+  /** Corner apexes to number on the outline (x in the same units as `x`). */
+  corners?: { x: number; name: string }[];
 }
 
-const SIZE = 300;
+const DEFAULT_SIZE = 300;
 const PAD = 14;
 
-export function TrackMap({ x, eastM, northM, values, valueLabel, cursorX }: TrackMapProps) {
+export function TrackMap({ x, eastM, northM, values, valueLabel, cursorX, diverging = false, size: SIZE = DEFAULT_SIZE, corners = [] }: TrackMapProps) {
   const base = useRef<HTMLCanvasElement>(null);
   const top = useRef<HTMLCanvasElement>(null);
   const fit = useRef<{ s: number; ox: number; oy: number } | null>(null);
@@ -45,8 +44,13 @@ export function TrackMap({ x, eastM, northM, values, valueLabel, cursorX }: Trac
     let lo = Infinity;
     let hi = -Infinity;
     if (values) for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) { lo = Math.min(lo, values[i]); hi = Math.max(hi, values[i]); }
-    return Number.isFinite(lo) ? [lo, hi] : null;
-  }, [values]);
+    if (!Number.isFinite(lo)) return null;
+    if (diverging) {
+      const m = Math.max(Math.abs(lo), Math.abs(hi));
+      return [-m, m];
+    }
+    return [lo, hi];
+  }, [values, diverging]);
 
   useEffect(() => {
     const cv = base.current!;
@@ -74,7 +78,7 @@ export function TrackMap({ x, eastM, northM, values, valueLabel, cursorX }: Trac
       const e0 = eastM[i - 1], n0 = northM[i - 1], e1 = eastM[i], n1 = northM[i];
       if (![e0, n0, e1, n1].every(Number.isFinite)) continue;
       const v = values ? values[i] : NaN;
-      c.strokeStyle = range && Number.isFinite(v) ? rampColour((v - range[0]) / Math.max(1e-9, range[1] - range[0])) : "#7d8896";
+      c.strokeStyle = range && Number.isFinite(v) ? (diverging ? gainColour(v, range[1]) : rampColour((v - range[0]) / Math.max(1e-9, range[1] - range[0]))) : "#7d8896";
       c.beginPath();
       c.moveTo(ox + s * e0, oy - s * n0);
       c.lineTo(ox + s * e1, oy - s * n1);
@@ -83,7 +87,15 @@ export function TrackMap({ x, eastM, northM, values, valueLabel, cursorX }: Trac
     // Start/finish: the path's first point.
     c.fillStyle = "#e4e8ed";
     c.fillRect(ox + s * eastM[0] - 2, oy - s * northM[0] - 6, 4, 12);
-  }, [eastM, northM, values, range]);
+    // Corners numbered beside the outline, in lap order.
+    c.font = "10px sans-serif";
+    c.fillStyle = "#a3adb9";
+    corners.forEach((k, i) => {
+      const e = interpolateAt(x, eastM, k.x);
+      const n = interpolateAt(x, northM, k.x);
+      if (Number.isFinite(e) && Number.isFinite(n)) c.fillText(String(i + 1), ox + s * e + 5, oy - s * n - 5);
+    });
+  }, [eastM, northM, values, range, diverging, SIZE, corners, x]);
 
   useEffect(() => {
     const cv = top.current!;
@@ -117,10 +129,18 @@ export function TrackMap({ x, eastM, northM, values, valueLabel, cursorX }: Trac
         <canvas ref={base} role="img" aria-label={`Track outline of the reference lap${values ? `, coloured by ${valueLabel}` : ""}`} style={{ width: SIZE, height: SIZE }} className="absolute inset-0" />
         <canvas ref={top} aria-hidden style={{ width: SIZE, height: SIZE }} className="absolute inset-0" />
       </div>
-      {values && (
-        <figcaption className="flex items-center gap-2 text-[11px] text-ink-400">
+      {values && diverging && (
+        <figcaption className="flex items-center gap-2 text-[11px] text-ink-400" data-testid="outline-legend">
+          <span>gained</span>
+          <span className="h-2 flex-1 rounded" style={{ background: `linear-gradient(90deg, ${gainColour(-1, 1)}, ${gainColour(0, 1)}, ${gainColour(1, 1)})` }} />
+          <span>lost</span>
+          <span className="text-ink-300">{valueLabel}</span>
+        </figcaption>
+      )}
+      {values && !diverging && (
+        <figcaption className="flex items-center gap-2 text-[11px] text-ink-400" data-testid="outline-legend">
           <span className="num">{r ? r[0].toFixed(0) : ""}</span>
-          <span className="h-2 flex-1 rounded" style={{ background: `linear-gradient(90deg, ${[0, 1 / 3, 2 / 3, 1].map(rampColour).join(",")})` }} />
+          <span className="h-2 flex-1 rounded" style={{ background: `linear-gradient(90deg, ${[0, 1 / 2, 1].map((f) => rampColour(f)).join(",")})` }} />
           <span className="num">{r ? r[1].toFixed(0) : ""}</span>
           <span>{valueLabel}</span>
         </figcaption>

@@ -32,14 +32,14 @@ export async function fetchLapSeries(url: string): Promise<LapSeriesData> {
   return { meta, arrays, url, bytes: buf.byteLength };
 }
 
-/** The series of `laps` × `roles` on x for a chart `width` px wide; idle until both are given. */
-export function useLapSeries(laps: readonly LapRef[], roles: readonly string[], x: SeriesX, width: number) {
-  const search = lapSeriesSearch(laps, roles, x, width);
+/** The series of `laps` × `roles` on x for a chart `width` px wide (only `window` of x when given: zooming in fetches finer data for that stretch); idle until both are given. */
+export function useLapSeries(laps: readonly LapRef[], roles: readonly string[], x: SeriesX, width: number, window: [number, number] | null = null, enabled = true) {
+  const search = lapSeriesSearch(laps, roles, x, width, window);
   const url = `/api/series?${search}`;
   return useQuery({
     queryKey: queryKeys.lapSeries(search),
     queryFn: () => fetchLapSeries(url),
-    enabled: laps.length > 0 && roles.length > 0 && width > 0,
+    enabled: enabled && laps.length > 0 && roles.length > 0 && width > 0,
     // Keep the charts showing the previous laps while the next set loads.
     placeholderData: keepPreviousData,
     staleTime: 5 * 60_000,

@@ -34,6 +34,8 @@ export interface VisibleSession {
   createdAt: string;
   trackId: number | null;
   status: string;
+  /** Raised each time the session's laps are computed (caches of per-lap results key on it). */
+  analysisVersion: number;
 }
 
 
@@ -99,7 +101,7 @@ export function toLibLap(r: LapRow): Lap {
 
 /** ride_sessions columns (alias s, riders alias r) as VisibleSession wants them. */
 const SESSION_COLUMNS = `s.id AS id, s.title AS title, r.name AS riderName, s.started_at AS startedAt, s.created_at AS createdAt,
-  s.track_id AS trackId, s.status AS status`;
+  s.track_id AS trackId, s.status AS status, s.analysis_version AS analysisVersion`;
 
 interface SessionDbRow {
   id: number;
@@ -109,6 +111,7 @@ interface SessionDbRow {
   createdAt: Date;
   trackId: number | null;
   status: string;
+  analysisVersion: number | null;
 }
 
 function toVisibleSession(r: SessionDbRow): VisibleSession {
@@ -120,6 +123,7 @@ function toVisibleSession(r: SessionDbRow): VisibleSession {
     createdAt: r.createdAt.toISOString(),
     trackId: r.trackId,
     status: r.status,
+    analysisVersion: Number(r.analysisVersion ?? 0),
   };
 }
 

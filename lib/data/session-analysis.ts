@@ -102,6 +102,8 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
   const oldFindingIds = (await Finding.findAll({ where: { sessionId }, attributes: ["id"], transaction: t })).map((r) => r.id);
   if (oldLapIds.length) await Lap.destroy({ where: { id: oldLapIds }, transaction: t });
   if (oldFindingIds.length) await Finding.destroy({ where: { id: oldFindingIds }, transaction: t });
+  // New laps: caches of per-lap results (Compare's distance arrays) key on this counter.
+  await sequelize.query("UPDATE ride_sessions SET analysis_version = analysis_version + 1 WHERE id = ?", { replacements: [sessionId], type: QueryTypes.UPDATE, transaction: t });
   if (analysis.laps.length) {
     await Lap.bulkCreate(
       analysis.laps.map((l) => ({

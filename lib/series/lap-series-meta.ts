@@ -42,6 +42,35 @@ export interface LapSeriesPane {
   decimated: boolean;
 }
 
+/** A named corner of the track along the reference lap, and how each lap went through it. */
+export interface LapSeriesCorner {
+  name: string;
+  /** Apex on the x axis (m or s of the reference lap). */
+  x: number;
+  /** The corner's stretch on the x axis: halfway from the previous apex to halfway to the next. */
+  fromX: number;
+  toX: number;
+  /** The same stretch in distance along the reference lap, m. */
+  fromM: number;
+  toM: number;
+  /** Per lap (same order as `laps`), null where the lap has no speed channel. */
+  laps: ({
+    /** Speed where the stretch begins, m/s. */
+    entrySpeedMs: number;
+    /** Where front brake pressure first passed the braking threshold, m from the lap start (null: no braking or no brake channel). */
+    brakingPointM: number | null;
+    /** Lowest speed in the stretch, m/s, and where, m. */
+    minSpeedMs: number;
+    apexM: number;
+    /** Speed where the stretch ends, m/s. */
+    exitSpeedMs: number;
+    /** Time through the stretch, s. */
+    timeS: number;
+    /** Time gained on the reference lap in this stretch, s (+ = gained; 0 for the reference). */
+    gainedS: number;
+  } | null)[];
+}
+
 export interface LapSeriesMeta {
   x: SeriesX;
   xUnit: "m" | "s";
@@ -58,4 +87,14 @@ export interface LapSeriesMeta {
   gap: { x: number; series: (number | null)[]; decimated: boolean } | null;
   /** Reference lap's path in local metres (east, north) at x positions, for the track outline. */
   track: { x: number; eastM: number; northM: number } | null;
+  /** The x window these arrays cover (SI), the whole lap unless a window was asked for. */
+  window: [number, number];
+  /** Length of the whole common grid in x (SI), whatever the window. */
+  fullX: [number, number];
+  /** Sector bands of the reference lap on the x axis (from its sector times). */
+  sectors: { name: string; fromX: number; toX: number }[];
+  /** The track's named corners (or corners found from the reference lap's speed), in lap order. */
+  corners: LapSeriesCorner[];
+  /** Where the corners come from. */
+  cornerSource: "track" | "found" | "none";
 }

@@ -41,11 +41,18 @@ export const lapSeriesQuerySchema = z.object({
     .pipe(z.array(z.enum(PLOTTABLE)).min(1).max(MAX_COMPARE_ROLES)),
   x: z.enum(["distance", "time"]).default("distance"),
   width: z.coerce.number().int().min(50).max(10_000).default(1200),
-});
+  /** Optional x window (SI: m or s): only this stretch, at full resolution before decimation. */
+  from: z.coerce.number().finite().min(0).optional(),
+  to: z.coerce.number().finite().positive().optional(),
+}).refine((q) => (q.from == null) === (q.to == null) && (q.from == null || q.to! > q.from), { message: "from and to come together, with to > from", path: ["to"] });
 
 export type LapSeriesQuery = z.infer<typeof lapSeriesQuerySchema>;
 
-export function lapSeriesSearch(laps: readonly LapRef[], roles: readonly string[], x: SeriesX, width: number): string {
+export function lapSeriesSearch(laps: readonly LapRef[], roles: readonly string[], x: SeriesX, width: number, window: [number, number] | null = null): string {
   const p = new URLSearchParams({ laps: formatLapRefs(laps), roles: roles.join(","), x, width: String(Math.round(width)) });
+  if (window) {
+    p.set("from", String(window[0]));
+    p.set("to", String(window[1]));
+  }
   return p.toString();
 }

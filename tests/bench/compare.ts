@@ -13,6 +13,7 @@
  * The session: 30 minutes at 100 Hz from the sample-log generator (40 channels, extended set),
  * written through lib/data/samples (the ingest storage path) and analysed for laps into a scratch
  * database lapbench_bench_compare_<pid>, dropped at the end. Medians of --runs (default 9).
+ * `--server-only` skips the browser half (for profiling the server path with node --cpu-prof).
  */
 import fs from "node:fs";
 import path from "node:path";
@@ -43,6 +44,10 @@ async function main() {
   dropDatabase(dbName);
   ensureDatabase(dbName);
   process.env.LAPBENCH_DB_NAME = dbName;
+  // lib/config read the name when workers/services/mariadb was imported above: point it at the
+  // scratch database too, or the run would write into the app's own database.
+  const { config } = await import("../../lib/config");
+  config.db.name = dbName;
   try {
     await bench(dbName);
   } finally {
@@ -168,6 +173,7 @@ async function bench(dbName: string) {
   console.log(`  of which: guard (session, team, role) ${median(guardMs).toFixed(1)} ms · lap series (reads + computation) ${median(libMs).toFixed(1)} ms · binary encode ${median(encMs).toFixed(1)} ms`);
 
   // ---- browser ---------------------------------------------------------------------------
+  if (process.argv.includes("--server-only")) return;
   const bundle = await build({
     entryPoints: [path.join(__dirname, "compare-harness.tsx")],
     bundle: true,

@@ -1,8 +1,9 @@
 /**
  * Compare, as a data engineer would use it in Chromium against the production build: open a ready
- * demo session, tick two laps in the lap table, Compare, hover a chart and read the legend —
- * checked against the series the API serves — zoom, then open the same link in a new page and
- * find the same laps, channels and zoom.
+ * demo session, tick two laps in the lap table, Compare — it opens on the corner view — then the
+ * whole lap: the default panes, the gained/lost band under each x axis, the values at the cursor
+ * as chips in each caption — checked against the series the API serves — zoom (finer data for the
+ * stretch), then open the same link in a new page and find the same laps, panes and zoom.
  */
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
@@ -43,9 +44,18 @@ async function waitDrawn(p: Page) {
 }
 
 let compareUrl = "";
+let served: { meta: LapSeriesMeta; arrays: ReturnType<typeof decodeSeries>["arrays"] };
+
+async function servedSeries(p: Page) {
+  const url = await p.getByTestId("compare").getAttribute("data-series-url");
+  const res = await p.request.get(`${appUrl()}${url}`);
+  expect(res.status()).toBe(200);
+  expect(res.headers()["content-type"]).toBe("application/octet-stream");
+  return { url: url!, ...decodeSeries<LapSeriesMeta>(await res.body()) };
+}
 
 describe("Compare from the lap table", () => {
-  it("ticks two laps, compares them, and the legend at the cursor matches the served series", async () => {
+  it("ticks two laps and opens on the corner view: one card per corner with the served figures", async () => {
     const { id, laps } = await readyDemoSession();
     const flying = laps.filter((l) => !l.outLap && !l.inLap && !l.pitPass && !l.invalid);
     const [a, b] = [flying[1], flying[2]];
@@ -59,94 +69,177 @@ describe("Compare from the lap table", () => {
     await page.getByRole("button", { name: "Compare selected" }).click();
     await page.waitForURL(new RegExp(`/compare\\?laps=${id}:${a.number},${id}:${b.number}`));
     await waitDrawn(page);
+    expect(await page.getByTestId("compare").getAttribute("data-mode")).toBe("corners");
 
-    // From data arrival to every pane drawn, in the app (performance marks).
-    const ms = await page.evaluate(() => {
-      const arrived = performance.getEntriesByName("lapbench:series-arrived").at(-1)!.startTime;
-      const drawn = performance.getEntriesByName("lapbench:charts-drawn").at(-1)!.startTime;
-      return drawn - arrived;
-    });
-    console.log(`[e2e compare] series arrival → all panes drawn: ${ms.toFixed(0)} ms`);
+    served = await servedSeries(page);
+    const { meta } = served;
+    expect(meta.laps.map((l) => l.lap)).toEqual([a.number, b.number]);
+    // The demo circuit's corners are named on its track: the cards follow them, in lap order.
+    expect(meta.cornerSource).toBe("track");
+    expect(meta.corners.length).toBeGreaterThanOrEqual(4);
+    const cards = page.getByTestId("corner-card");
+    await expect(cards.count()).resolves.toBe(meta.corners.length);
+    expect(await cards.evaluateAll((els) => els.map((e) => e.getAttribute("data-corner")))).toEqual(meta.corners.map((c) => c.name));
+    for (let k = 0; k < meta.corners.length; k++) {
+      expect(Number(await page.getByTestId(`corner-gained-${k}-1`).getAttribute("data-si"))).toBe(meta.corners[k].laps[1]!.gainedS);
+    }
+    // Each card has its small speed trace, one line per lap.
+    await expect(cards.first().locator("svg path").count()).resolves.toBe(2);
+    await shot(page, "compare-02-corners");
+  });
 
-    // Hover the speed pane at 40 % of its width.
-    const over = page.getByTestId("pane-speed_front").locator(".u-over");
+  it("Whole lap: our default panes — Inputs, Speed, Chassis, Engine speed with gear — and no gap pane", async () => {
+    await page.getByRole("group", { name: "Compare by" }).getByRole("button", { name: "Whole lap" }).click();
+    await page.waitForURL(/view=lap/);
+    await waitDrawn(page);
+    const panes = await page.getByTestId("panes").locator('[data-testid^="pane-"]').evaluateAll((els) => els.map((e) => e.getAttribute("data-testid")));
+    expect(panes).toEqual(["pane-inputs", "pane-speed", "pane-chassis", "pane-engine"]);
+    // Inputs: throttle up, front and rear brake mirrored down on their own (right) axis.
+    expect(await page.getByTestId("pane-inputs").getAttribute("data-axes")).toBe("thr:left brk:right:down");
+    // Two laps × throttle, front brake, rear brake: the brakes share the mirrored scale.
+    expect(await page.getByTestId("pane-inputs").getAttribute("data-series-scales")).toBe("thr thr brk brk brk brk");
+    expect(await page.getByTestId("pane-speed").getAttribute("data-series-scales")).toBe("y y y y");
+    expect(await page.getByTestId("pane-chassis").getAttribute("data-series-scales")).toBe("y y y y");
+    // Engine speed on the left axis, gear steps on a second axis on the right.
+    expect(await page.getByTestId("pane-engine").getAttribute("data-axes")).toBe("y:left gear:right");
+    expect(await page.getByTestId("pane-engine").getAttribute("data-series-scales")).toBe("y y gear gear");
+    await page.getByTestId("pane-gap").waitFor({ state: "detached" });
+  });
+
+  it("values at the cursor are chips in each pane's caption, one per lap and channel, as served", async () => {
+    const over = page.getByTestId("pane-speed").locator(".u-over");
     await over.scrollIntoViewIfNeeded();
     const box = (await over.boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.4, box.y + box.height / 2);
     await page.mouse.move(box.x + box.width * 0.4 + 3, box.y + box.height / 2);
-    await page.getByTestId("legend-x").waitFor();
-    await shot(page, "compare-02-cursor");
-
-    const url = await page.getByTestId("compare").getAttribute("data-series-url");
-    const res = await page.request.get(`${appUrl()}${url}`);
-    expect(res.headers()["content-type"]).toBe("application/octet-stream");
-    const { meta, arrays } = decodeSeries<LapSeriesMeta>(await res.body());
-    expect(meta.laps.map((l) => l.lap)).toEqual([a.number, b.number]);
-    expect(meta.laps.map((l) => l.lapTimeMs)).toEqual([a.lapTimeMs, b.lapTimeMs]);
-    const x = Number(await page.getByTestId("legend-x").getAttribute("data-si"));
+    await page.getByTestId("chip-pane-speed-0").waitFor();
+    await shot(page, "compare-03-cursor-chips");
+    const { meta, arrays } = await servedSeries(page);
+    const x = Number(await page.getByTestId("cursor-x").getAttribute("data-si"));
     expect(x).toBeGreaterThan(0);
-    for (const role of ["speed_front", "throttle", "engine_rpm"]) {
+    // Speed pane: front for each lap, then rear for each lap.
+    const order: [string, number][] = [["speed_front", 0], ["speed_front", 1], ["speed_rear", 0], ["speed_rear", 1]];
+    for (const [i, [role, lap]] of order.entries()) {
       const pane = meta.panes.find((p) => p.role === role)!;
       const k = nearestIndex(arrays[pane.x], x);
-      for (let lap = 0; lap < 2; lap++) {
-        const cell = page.getByTestId(`legend-${role}-${lap}`);
-        expect(Number(await cell.getAttribute("data-si"))).toBe(arrays[pane.series[lap]!][k]);
-      }
+      expect(Number(await page.getByTestId(`chip-pane-speed-${i}`).getAttribute("data-si"))).toBeCloseTo(arrays[pane.series[lap]!][k], 4);
     }
-    // Shown in the display unit: front wheel speed in km/h, one decimal (metric default).
-    const v = arrays[meta.panes.find((p) => p.role === "speed_front")!.series[0]!][nearestIndex(arrays[meta.panes[0].x], x)];
-    await expect(page.getByTestId("legend-speed_front-0").textContent()).resolves.toBe((v * 3.6).toFixed(1));
-    // The running gap at the cursor: B behind or ahead of A by the served amount.
-    const gk = nearestIndex(arrays[meta.gap!.x], x);
-    expect(Number(await page.getByTestId("legend-gap-1").getAttribute("data-si"))).toBe(arrays[meta.gap!.series[1]!][gk]);
+    // Shown in the display unit: km/h, one decimal (metric default).
+    const front = meta.panes.find((p) => p.role === "speed_front")!;
+    const v = arrays[front.series[0]!][nearestIndex(arrays[front.x], x)];
+    await expect(page.getByTestId("chip-pane-speed-0").textContent()).resolves.toContain(`${(v * 3.6).toFixed(1)} km/h`);
+    // Inputs: throttle, front brake, rear brake × two laps = six chips.
+    await expect(page.getByTestId("pane-inputs").locator('[data-testid^="chip-"]').count()).resolves.toBe(6);
   });
 
-  it("zooms by dragging; the URL keeps the zoom", async () => {
-    const over = page.getByTestId("pane-throttle").locator(".u-over");
+  it("a thin signed band under every x axis shows where the second lap gained and where it lost", async () => {
+    const { meta, arrays } = served;
+    const gap = arrays[meta.gap!.series[1]!];
+    // The served gap both rises and falls along the lap, so both signs must be drawn.
+    let up = 0, down = 0;
+    for (let i = 1; i < gap.length; i++) (gap[i] > gap[i - 1] ? up++ : gap[i] < gap[i - 1] ? down++ : 0);
+    expect(up).toBeGreaterThan(0);
+    expect(down).toBeGreaterThan(0);
+    for (const pane of ["inputs", "speed", "chassis", "engine"]) {
+      const host = page.getByTestId(`pane-${pane}`).locator("[data-gap-gained]");
+      const gained = Number(await host.getAttribute("data-gap-gained"));
+      const lost = Number(await host.getAttribute("data-gap-lost"));
+      expect(gained).toBeGreaterThan(0);
+      expect(lost).toBeGreaterThan(0);
+    }
+    // The band's pixels are drawn: teal above the band's middle line, amber below, under the x axis.
+    const colours = await page.getByTestId("pane-speed").locator("canvas").first().evaluate((cv) => {
+      const c = (cv as HTMLCanvasElement).getContext("2d")!;
+      const h = (cv as HTMLCanvasElement).height, w = (cv as HTMLCanvasElement).width;
+      const img = c.getImageData(0, Math.floor(h * 0.75), w, h - Math.floor(h * 0.75)).data;
+      let teal = 0, amber = 0;
+      for (let i = 0; i < img.length; i += 4) {
+        if (img[i] === 0x4f && img[i + 1] === 0xd1 && img[i + 2] === 0xc5) teal++;
+        if (img[i] === 0xf5 && img[i + 1] === 0x9e && img[i + 2] === 0x1b) amber++;
+      }
+      return { teal, amber };
+    });
+    expect(colours.teal).toBeGreaterThan(0);
+    expect(colours.amber).toBeGreaterThan(0);
+  });
+
+  it("the Running gap pane is an option, and its chips are the served gap", async () => {
+    // The box follows the URL, so click and wait for the pane rather than for the box.
+    await page.getByLabel("Running gap pane").click();
+    await page.getByTestId("pane-gap").waitFor();
+    const panes = await page.getByTestId("panes").locator('[data-testid^="pane-"]').evaluateAll((els) => els.map((e) => e.getAttribute("data-testid")));
+    expect(panes[0]).toBe("pane-gap");
+    const over = page.getByTestId("pane-gap").locator(".u-over");
+    const box = (await over.boundingBox())!;
+    await page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2);
+    await page.mouse.move(box.x + box.width * 0.6 + 2, box.y + box.height / 2);
+    await page.getByTestId("chip-pane-gap-0").waitFor();
+    const x = Number(await page.getByTestId("cursor-x").getAttribute("data-si"));
+    const { meta, arrays } = await servedSeries(page);
+    const gk = nearestIndex(arrays[meta.gap!.x], x);
+    expect(Number(await page.getByTestId("chip-pane-gap-0").getAttribute("data-si"))).toBeCloseTo(arrays[meta.gap!.series[1]!][gk], 5);
+    await page.getByLabel("Running gap pane").click();
+    await page.getByTestId("pane-gap").waitFor({ state: "detached" });
+  });
+
+  it("zooms by dragging: the URL keeps the zoom and finer data is fetched for that stretch only", async () => {
+    const over = page.getByTestId("pane-inputs").locator(".u-over");
     await over.scrollIntoViewIfNeeded();
     const box = (await over.boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.3, box.y + box.height / 2);
     await page.mouse.down();
+    await page.mouse.move(box.x + box.width * 0.4, box.y + box.height / 2, { steps: 5 });
     await page.mouse.move(box.x + box.width * 0.45, box.y + box.height / 2, { steps: 5 });
-    await page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2, { steps: 5 });
     await page.mouse.up();
     await page.waitForURL(/from=\d+(\.\d+)?&to=\d+/);
+    await page.locator('[data-testid="compare"][data-series-url*="from="]').waitFor();
+    await waitDrawn(page);
+    const from = Number(new URL(page.url()).searchParams.get("from"));
+    const to = Number(new URL(page.url()).searchParams.get("to"));
+    const zoomed = await servedSeries(page);
+    expect(zoomed.url).toMatch(/&from=.*&to=/);
+    expect(zoomed.meta.window[0]).toBeGreaterThanOrEqual(from - 1);
+    expect(zoomed.meta.window[1]).toBeLessThanOrEqual(to + 1);
+    // Finer than the whole lap: more points per metre in the stretch.
+    const perM = (m: LapSeriesMeta, arr: typeof zoomed.arrays) => arr[m.panes[0].x].length / (m.window[1] - m.window[0]);
+    expect(perM(zoomed.meta, zoomed.arrays)).toBeGreaterThan(perM(served.meta, served.arrays));
     // Every pane follows the zoom (synced through the setScale hook).
     const ranges = await page.locator("[data-x-min]").evaluateAll((els) => els.map((e) => [Number((e as HTMLElement).dataset.xMin), Number((e as HTMLElement).dataset.xMax)]));
-    expect(ranges.length).toBeGreaterThanOrEqual(3);
+    expect(ranges.length).toBe(4);
     for (const r of ranges) {
-      expect(r[0]).toBeCloseTo(ranges[0][0], 0);
-      expect(r[1]).toBeCloseTo(ranges[0][1], 0);
+      expect(r[0]).toBeCloseTo(from, 0);
+      expect(r[1]).toBeCloseTo(to, 0);
     }
     compareUrl = page.url();
-    await shot(page, "compare-03-zoomed");
+    await shot(page, "compare-04-zoomed");
   });
 
-  it("a teammate opening the link sees the same laps, channels and zoom", async () => {
+  it("a teammate opening the link sees the same laps, panes and zoom", async () => {
     const from = Number(new URL(compareUrl).searchParams.get("from"));
     const to = Number(new URL(compareUrl).searchParams.get("to"));
     const other = await ctx.newPage();
     await other.goto(compareUrl);
     await waitDrawn(other);
-    const heads = await other.getByTestId("legend").locator("thead th").allTextContents();
-    const mine = await page.getByTestId("legend").locator("thead th").allTextContents();
-    expect(heads).toEqual(mine);
+    expect(await other.getByTestId("lap-keys").textContent()).toBe(await page.getByTestId("lap-keys").textContent());
     const panes = await other.locator('[data-testid^="pane-"]').evaluateAll((els) => els.map((e) => e.getAttribute("data-testid")));
     const myPanes = await page.locator('[data-testid^="pane-"]').evaluateAll((els) => els.map((e) => e.getAttribute("data-testid")));
     expect(panes).toEqual(myPanes);
-    const r = await other.getByTestId("pane-speed_front").locator("[data-x-min]").evaluate((e) => [Number((e as HTMLElement).dataset.xMin), Number((e as HTMLElement).dataset.xMax)]);
+    const r = await other.getByTestId("pane-speed").locator("[data-x-min]").evaluate((e) => [Number((e as HTMLElement).dataset.xMin), Number((e as HTMLElement).dataset.xMax)]);
     // Metric display: the axis is in metres, as stored.
     expect(r[0]).toBeCloseTo(from, 0);
     expect(r[1]).toBeCloseTo(to, 0);
-    await shot(other, "compare-04-shared-link");
     await other.close();
   });
 
   it("switches to imperial: speeds in mph, the zoom unchanged in the URL", async () => {
     await page.getByRole("group", { name: "Units" }).getByRole("button", { name: "imperial" }).click();
-    await page.getByTestId("legend").getByText("[mph]").first().waitFor();
+    await page.getByTestId("pane-speed").getByText("[mph]").first().waitFor();
     expect(page.url()).toBe(compareUrl);
-    await shot(page, "compare-05-imperial");
     await page.getByRole("group", { name: "Units" }).getByRole("button", { name: "metric" }).click();
+    await page.getByRole("button", { name: "Show the whole lap" }).click();
+    await page.waitForURL((u) => !u.searchParams.has("from"));
+    await waitDrawn(page);
+    await page.mouse.move(0, 0);
+    await shot(page, "compare-05-whole-lap");
   });
 });

@@ -24,6 +24,9 @@ import * as seriesRoute from "@/app/api/series/route";
 import * as csvRoute from "@/app/api/sessions/[id]/laps.csv/route";
 import * as gpxRoute from "@/app/api/sessions/[id]/laps/[lap]/gpx/route";
 import * as lapsRoute from "@/app/api/sessions/[id]/laps/route";
+import { SERIES_LIMITS, clearLapSeriesCaches } from "@/lib/data/lap-series";
+import { reanalyseSession } from "@/lib/data/reanalyse";
+import { QueryTypes } from "sequelize";
 
 const FILE = path.resolve("sample-logs/files/three-laps-20hz.csv");
 const TRUTH = JSON.parse(fs.readFileSync(path.resolve("sample-logs/files/three-laps-20hz.truth.json"), "utf8")) as {
@@ -248,6 +251,108 @@ describe("series values", () => {
       expect(Array.from(sMin)).toEqual(Array.from(fMin));
       expect(Array.from(sMax)).toEqual(Array.from(fMax));
     }
+  });
+});
+
+describe("heavy requests, windows, corners and sectors", () => {
+  const two = () => `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`;
+
+  it("the same lap asked twice is compared once, in first-mention order", async () => {
+    const { meta } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${flying[1].number},${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`, "speed_front"));
+    expect(meta.laps.map((l) => l.lap)).toEqual([flying[1].number, flying[0].number]);
+    expect(meta.panes[0].series).toHaveLength(2);
+  });
+
+  it("answers 413 with a clear message above the samples-read cap and above the grid-points cap", async () => {
+    const saved = { ...SERIES_LIMITS };
+    try {
+      // One 20 Hz flying lap of ~90 s with 2 channels is a few thousand samples: a cap of 1000 refuses it.
+      SERIES_LIMITS.maxSamplesRead = 1000;
+      const res = await series(a.members.engineer.cookie, two(), "speed_front,throttle");
+      expect(res.status).toBe(413);
+      expect((await res.json()).error).toMatch(/would read about [\d,]+ samples; the limit is 1,000/);
+      SERIES_LIMITS.maxSamplesRead = saved.maxSamplesRead;
+      // By time at 20 Hz a ~90 s lap is ~1800 grid points; by distance ~ the lap length in metres.
+      SERIES_LIMITS.maxGridPoints = 500;
+      const byTime = await series(a.members.engineer.cookie, two(), "speed_front", "time");
+      expect(byTime.status).toBe(413);
+      expect((await byTime.json()).error).toMatch(/grid points; the limit is 500/);
+    } finally {
+      Object.assign(SERIES_LIMITS, saved);
+    }
+    expect((await series(a.members.engineer.cookie, two(), "speed_front")).status).toBe(200);
+  });
+
+  it("a window returns only that stretch, at full resolution, with the same values as the whole lap", async () => {
+    const whole = await decoded(await series(a.members.engineer.cookie, two(), "speed_front", "distance", 10_000));
+    const res = await seriesRoute.GET(req(`${seriesUrl(two(), "speed_front", "distance", 300)}&from=1000&to=1400`, a.members.engineer.cookie), params({}));
+    const part = await decoded(res);
+    expect(part.meta.window).toEqual([1000, 1400]);
+    expect(part.meta.fullX[1]).toBeCloseTo(whole.meta.laps[0].lengthM, 6);
+    const p = part.meta.panes[0];
+    const xs = part.arrays[p.x];
+    // 401 points at 1 m and 300 px: below four points per column, so nothing is thinned.
+    expect(p.decimated).toBe(false);
+    expect(xs.length).toBe(401);
+    const wx = whole.arrays[whole.meta.panes[0].x];
+    for (const k of [0, 123, 400]) {
+      const g = Array.from(wx).indexOf(xs[k]);
+      expect(g).toBeGreaterThan(0);
+      for (let s = 0; s < 2; s++) expect(part.arrays[p.series[s]!][k]).toBe(whole.arrays[whole.meta.panes[0].series[s]!][g]);
+      expect(part.arrays[part.meta.gap!.series[1]!][k]).toBe(whole.arrays[whole.meta.gap!.series[1]!][g]);
+    }
+    const bad = await seriesRoute.GET(req(`${seriesUrl(two(), "speed_front")}&from=500`, a.members.engineer.cookie), params({}));
+    expect(bad.status).toBe(422);
+  });
+
+  it("the x axis carries the track's named corners and the reference lap's sector bands", async () => {
+    const { meta } = await decoded(await series(a.members.engineer.cookie, two(), "speed_front,brake_front"));
+    expect(meta.cornerSource).toBe("track");
+    expect(meta.corners.map((c) => c.name)).toEqual(CIRCUIT.corners.map((c) => c.name));
+    for (const [k, c] of meta.corners.entries()) {
+      expect(c.x).toBeCloseTo(CIRCUIT.corners[k].apexDistanceM, 6);
+      expect(c.fromX).toBeLessThan(c.x);
+      expect(c.toX).toBeGreaterThan(c.x);
+    }
+    // Sector bands: one per sector time, end to end over the lap, each as long as the ground truth's
+    // sector distance is not known, so check they tile the lap and follow the sector times.
+    const ref = (await Lap.findOne({ where: { sessionId: riderSession, number: flying[0].number } }))!;
+    const times = (ref.sectorTimesMs as number[] | null) ?? [];
+    if (times.length > 1) {
+      expect(meta.sectors).toHaveLength(times.length);
+      expect(meta.sectors[0].fromX).toBe(0);
+      expect(meta.sectors.at(-1)!.toX).toBeCloseTo(meta.laps[0].lengthM, 6);
+      for (let i = 1; i < meta.sectors.length; i++) expect(meta.sectors[i].fromX).toBe(meta.sectors[i - 1].toX);
+    }
+  });
+
+  it("corner figures: the reference gains nothing, the time gained over all corners is the lap-time difference", async () => {
+    const { meta } = await decoded(await series(a.members.engineer.cookie, two(), "speed_front,brake_front"));
+    const sum = meta.corners.reduce((n, c) => n + c.laps[1]!.gainedS, 0);
+    // The corner stretches tile the lap, so their gains add up to time(A) − time(B) at the line.
+    expect(sum).toBeCloseTo((flying[0].lapTimeMs - flying[1].lapTimeMs) / 1000, 3);
+    for (const c of meta.corners) {
+      expect(c.laps[0]!.gainedS).toBe(0);
+      const l = c.laps[1]!;
+      expect(l.minSpeedMs).toBeLessThanOrEqual(Math.min(l.entrySpeedMs, l.exitSpeedMs) + 1e-6);
+      expect(l.apexM).toBeGreaterThanOrEqual(c.fromM);
+      expect(l.apexM).toBeLessThanOrEqual(c.toM);
+    }
+    // The generator brakes before its slow corners (common practice on any circuit): some corner has a braking point before its apex.
+    expect(meta.corners.some((c) => c.laps[0]!.brakingPointM != null && c.laps[0]!.brakingPointM < c.laps[0]!.apexM)).toBe(true);
+  });
+
+  it("a cached lap answers the same bytes, and re-analysis raises the session's analysis version", async () => {
+    clearLapSeriesCaches();
+    const first = new Uint8Array(await (await series(a.members.engineer.cookie, two(), "speed_front,throttle")).arrayBuffer());
+    const again = new Uint8Array(await (await series(a.members.engineer.cookie, two(), "speed_front,throttle")).arrayBuffer());
+    expect(Buffer.compare(Buffer.from(first), Buffer.from(again))).toBe(0);
+    const version = async () => Number((await getSequelize().query<{ v: number }>("SELECT analysis_version AS v FROM ride_sessions WHERE id = ?", { replacements: [riderSession], type: QueryTypes.SELECT }))[0].v);
+    const before = await version();
+    if (!lapsFromTruth) {
+      await reanalyseSession(getSequelize(), riderSession);
+      expect(await version()).toBe(before + 1);
+    } else expect(before).toBeGreaterThanOrEqual(1);
   });
 });
 

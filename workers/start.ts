@@ -25,7 +25,7 @@ async function main() {
   });
   const demo = stack.seeded
     ? ["Demo sign-ins (invented team; password for all: " + DEMO_PASSWORD + ")", ...DEMO_USERS.map((u) => `  ${u.role.padEnd(9)} ${u.email.padEnd(34)} ${u.name}`)]
-    : ["Demo team not seeded (the database has accounts). `npm start -- --demo` adds it."];
+    : ["Demo team not seeded by this start (the database already has accounts); `npm start -- --demo` seeds it."];
   const lines = [
     "",
     `Lapbench is up: ${stack.appUrl}   (listening on ${stack.env.HOST}; set HOST to change)`,

@@ -15,6 +15,23 @@ export const SESSION_EXPIRES_S = 7 * 24 * 60 * 60;
 export const SESSION_UPDATE_AGE_S = 24 * 60 * 60;
 /** Password-reset requests: 3 per 15 minutes per client address (each one sends an e-mail). */
 export const RESET_REQUEST_RATE_LIMIT = { window: 15 * 60, max: 3 };
+/** And at most 3 reset e-mails per 15 minutes to one account, from any number of addresses. */
+export const RESET_MAILS_PER_ACCOUNT = { window: 15 * 60, max: 3 };
+
+/**
+ * Reset links issued to this user in the last window (better-auth stores each as a verification
+ * row "reset-password:<token>" whose value is the user id, before it asks us to mail it).
+ */
+async function recentResetLinks(userId: string): Promise<number> {
+  const { getSequelize } = await import("../../models/db");
+  const { QueryTypes } = await import("sequelize");
+  const rows = await getSequelize().query<{ createdAt: Date }>(
+    "SELECT createdAt FROM verification WHERE value = ? AND identifier LIKE 'reset-password:%'",
+    { replacements: [userId], type: QueryTypes.SELECT },
+  );
+  const since = Date.now() - RESET_MAILS_PER_ACCOUNT.window * 1000;
+  return rows.filter((r) => new Date(r.createdAt).getTime() > since).length;
+}
 // 10 attempts a minute per client address. The end-to-end suite signs in dozens of times a minute
 // from one address, so its stack raises the ceiling through LAPBENCH_SIGNIN_RATE_MAX.
 export const SIGN_IN_RATE_LIMIT = { window: 60, max: Number(process.env.LAPBENCH_SIGNIN_RATE_MAX ?? 10) || 10 };
@@ -48,6 +65,9 @@ export const authOptions = {
     // A reset ends every session of the account: whoever knew the old password is signed out.
     revokeSessionsOnPasswordReset: true,
     async sendResetPassword({ user, url }) {
+      // Past the per-account limit the request still answers as usual (no hint whether the
+      // address exists) but no further e-mail goes out.
+      if ((await recentResetLinks(user.id)) > RESET_MAILS_PER_ACCOUNT.max) return;
       await mail(
         user.email,
         "Reset your Lapbench password",

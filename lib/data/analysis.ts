@@ -11,6 +11,7 @@ import { QueryTypes, type Sequelize, type Transaction } from "sequelize";
 import { initModels, Bike, Lap as LapModel, RideSession, Track, type TrackGates as StoredGates, type TrackCorner } from "@/models";
 import type { ChannelRole } from "@/lib/channels/roles";
 import type { Lap, TrackGates } from "@/lib/laps/types";
+import { recomputeCached, roundBoundaryMs } from "./recompute-cache";
 import { analysisBasis, buildAnalysisBase, PAGE_ROLES, pageRoles, type AnalysisBase, type AnalysisInputs, type BikeInfo } from "@/lib/analysis/analysis-base";
 import {
   briefLapShown,
@@ -132,8 +133,11 @@ export async function slipAnalysis(sequelize: Sequelize, sessionId: number, opts
       if (trace) return { ...stored, lap: chosen.number, trace };
     }
   }
-  const base = await loadAnalysisBase(sequelize, sessionId, PAGE_ROLES.slip);
-  return computeSlip(base, opts);
+  // The lean correction (or a lap the stored part lacks): computed from the samples, kept a while.
+  const inputs = await loadAnalysisInputs(sequelize, sessionId);
+  return recomputeCached(`slip:${sessionId}:${analysisBasis(inputs)}:${opts.lap ?? "best"}:${opts.lean ? 1 : 0}`, async () =>
+    computeSlip(await loadAnalysisBase(sequelize, sessionId, PAGE_ROLES.slip), opts),
+  );
 }
 
 /* ─────────────────────────── Suspension use ─────────────────────────── */
@@ -144,6 +148,8 @@ export async function suspensionAnalysis(
   opts: { lap?: number | null; window?: number; boundaryMs?: number } = {},
 ): Promise<SuspensionAnalysis> {
   const inputs = await loadAnalysisInputs(sequelize, sessionId);
+  // A person's boundary is restricted to whole mm/s (5–2 000), so results can be kept and reused.
+  if (opts.boundaryMs && opts.boundaryMs > 0) opts = { ...opts, boundaryMs: roundBoundaryMs(opts.boundaryMs) };
   const { window, boundaryMs } = suspensionSettings(opts);
   const stored = (await readStoredParts(sequelize, inputs, ["suspension"])).get("suspension") as StoredSuspension | undefined;
   // Stored for the default window and split only; another one is a person's setting.
@@ -154,8 +160,10 @@ export async function suspensionAnalysis(
       return { scope: lap ? `Lap ${lap.number}` : "Whole session", lap: lap?.number ?? null, laps: stored.lapList, window, boundaryMs, fork: sides.fork, shock: sides.shock, sampleRateHz: stored.sampleRateHz };
     }
   }
-  const base = await loadAnalysisBase(sequelize, sessionId, PAGE_ROLES.suspension);
-  return computeSuspension(base, opts);
+  const settings = opts;
+  return recomputeCached(`suspension:${sessionId}:${analysisBasis(inputs)}:${opts.lap ?? "all"}:${window}:${boundaryMs}`, async () =>
+    computeSuspension(await loadAnalysisBase(sequelize, sessionId, PAGE_ROLES.suspension), settings),
+  );
 }
 
 /* ─────────────────────────────── Gears ──────────────────────────────── */

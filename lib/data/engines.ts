@@ -17,6 +17,7 @@ import { jsonColumn } from "./json-column";
 import { loadSessionSeries } from "./session-series";
 import { optionalId, optionalNumber } from "./form-fields";
 import { ownBike } from "./bikes";
+import { recomputeCached, roundRpm } from "./recompute-cache";
 import { sessionVisibility } from "./sessions";
 
 export const engineSchema = z.object({
@@ -115,8 +116,11 @@ async function sessionUsage(s: RideSession, rpm: number, ceilingRpm: number): Pr
   if (complete && typeof stored.rpmThreshold === "number" && Math.abs(stored.rpmThreshold - rpm) < 0.5 && typeof stored.timeAboveRpmS === "number") {
     return { ...base, hours: stored.hours!, km: stored.distanceKm!, timeAboveRpmS: stored.timeAboveRpmS, ceilingExceedances: stored.ceilingExceedances ?? 0, source: "summary" };
   }
-  const { series } = await loadSessionSeries(getSequelize(), s.id, complete ? ["engine_rpm"] : ["engine_rpm", "speed_front", "speed_rear", "gps_speed"]);
-  const u = engineUsage(series, rpm, ceilingRpm);
+  // Read from the samples: kept a while per session version and rpm (see recompute-cache.ts).
+  const u = await recomputeCached(`engine:${s.id}:${s.updatedAt?.getTime() ?? 0}:${complete ? 1 : 0}:${rpm}:${ceilingRpm}`, async () => {
+    const { series } = await loadSessionSeries(getSequelize(), s.id, complete ? ["engine_rpm"] : ["engine_rpm", "speed_front", "speed_rear", "gps_speed"]);
+    return engineUsage(series, rpm, ceilingRpm);
+  });
   if (complete) {
     return { ...base, hours: stored.hours!, km: stored.distanceKm!, timeAboveRpmS: u.timeAboveRpmS, ceilingExceedances: stored.ceilingExceedances ?? u.ceilingExceedances, source: "samples" };
   }
@@ -126,7 +130,8 @@ async function sessionUsage(s: RideSession, rpm: number, ceilingRpm: number): Pr
 /** The engines of a bike, each with its ledger; `rpm` is the "time above" rpm chosen on screen. */
 export async function enginesOfBike(ctx: TeamContext, bikeId: number, rpm?: number): Promise<{ rpm: number; engines: EngineWithLedger[] }> {
   const bike: Bike = await ownBike(ctx, bikeId);
-  const chosenRpm = rpm ?? defaultLedgerRpm(bike.revCeilingRpm);
+  // A person's rpm is restricted to steps of 50 rpm, so results can be kept and reused.
+  const chosenRpm = rpm !== undefined ? roundRpm(rpm) : defaultLedgerRpm(bike.revCeilingRpm);
   // Without a ceiling nothing can exceed it.
   const ceiling = bike.revCeilingRpm ?? Infinity;
   const engines = await Engine.findAll({ where: { teamId: ctx.teamId, bikeId }, order: [["serial", "ASC"]] });

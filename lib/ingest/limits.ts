@@ -11,15 +11,22 @@ export interface IngestLimits {
   maxRows: number;
   /** Longest single line, in bytes. */
   maxLineBytes: number;
+  /**
+   * Largest GPX file: GPX is XML and is parsed whole in memory (CSV and NMEA are streamed), so it
+   * has its own, smaller limit. Default GPX_MAX_BYTES.
+   */
+  maxGpxBytes?: number;
 }
 
 const MIB = 1024 * 1024;
+export const GPX_MAX_BYTES = 64 * MIB;
 
 export const LIMITS: Readonly<IngestLimits> = Object.freeze({
   maxBytes: 512 * MIB,
   maxColumns: 512,
   maxRows: 20_000_000,
   maxLineBytes: 1 * MIB,
+  maxGpxBytes: GPX_MAX_BYTES,
 });
 
 function formatBytes(bytes: number): string {
@@ -35,6 +42,7 @@ export function limitStatements(limits: IngestLimits = LIMITS): Record<keyof Ing
     maxColumns: `A CSV file may have at most ${limits.maxColumns.toLocaleString("en-GB")} columns.`,
     maxRows: `A file may hold at most ${limits.maxRows.toLocaleString("en-GB")} rows of samples.`,
     maxLineBytes: `A single line may be at most ${formatBytes(limits.maxLineBytes)} long.`,
+    maxGpxBytes: `A GPX file is read whole, so it may be at most ${formatBytes(limits.maxGpxBytes ?? GPX_MAX_BYTES)}; CSV and NMEA are streamed.`,
   };
 }
 

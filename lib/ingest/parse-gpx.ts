@@ -3,7 +3,7 @@ import { getPreciseDistance } from "geolib";
 import { gpsFixSeries } from "./gps-fix-series";
 import { ISO_8601_DATE_TIME } from "./detect-time-format";
 import { IngestError, quoteForMessage } from "./ingest-error";
-import { formatBytes, LIMITS, type IngestLimits } from "./limits";
+import { formatBytes, GPX_MAX_BYTES, LIMITS, type IngestLimits } from "./limits";
 import type { ParsedSeries } from "./parsed-series";
 import { sniffFormat } from "./sniff-format";
 
@@ -62,6 +62,13 @@ export function parseGpx(input: string | Buffer, options: ParseGpxOptions = {}):
   const bytes = typeof input === "string" ? Buffer.byteLength(input, "utf8") : input.length;
   if (bytes > limits.maxBytes) {
     throw new IngestError("FILE_TOO_LARGE", `The file is larger than the limit of ${formatBytes(limits.maxBytes)} (${bytes.toLocaleString("en-GB")} bytes).`);
+  }
+  const gpxMax = limits.maxGpxBytes ?? GPX_MAX_BYTES;
+  if (bytes > gpxMax) {
+    throw new IngestError(
+      "FILE_TOO_LARGE",
+      `"${fileName}" is ${bytes.toLocaleString("en-GB")} bytes; a GPX file is read whole, so the limit is ${formatBytes(gpxMax)}. Split the track, or export it as NMEA 0183 or CSV (streamed, up to ${formatBytes(limits.maxBytes)}).`,
+    );
   }
   let text: string;
   if (typeof input === "string") text = input;

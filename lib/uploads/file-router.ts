@@ -6,6 +6,7 @@
 import { createUploadthing, UploadThingError, type FileRouter } from "uploadthing/server";
 import { getStatusCodeFromError, type FileSize } from "@uploadthing/shared";
 import { assertUploadServiceAnswers } from "./upload-service-check";
+import { GPX_MAX_BYTES } from "../ingest/limits";
 
 export interface Uploader {
   userId: string;
@@ -118,6 +119,12 @@ export function createLogFileRouter(deps: LogFileRouterDeps) {
         // Authorise first: an anonymous caller learns nothing about what is accepted.
         const who = await authorizeOrDeny(deps, req);
         for (const file of files) {
+          if (file.name.toLowerCase().endsWith(".gpx") && file.size > GPX_MAX_BYTES) {
+            throw new UploadThingError({
+              code: "BAD_REQUEST",
+              message: `"${file.name}" is ${(file.size / 1048576).toFixed(1)} MiB; a GPX file is read whole, so the limit is ${GPX_MAX_BYTES / 1048576} MiB. Split the track, or export it as NMEA 0183 or CSV.`,
+            });
+          }
           if (!isLogFileName(file.name)) {
             throw new UploadThingError({
               code: "BAD_REQUEST",

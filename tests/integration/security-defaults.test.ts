@@ -14,7 +14,7 @@ import { simpleParser, type ParsedMail } from "mailparser";
 import { createSequelize } from "@/models/db";
 import { config } from "@/lib/config";
 import { createAuth, type LapbenchAuth } from "@/lib/auth/create-auth";
-import { RESET_REQUEST_RATE_LIMIT, SESSION_EXPIRES_S, SIGN_IN_RATE_LIMIT } from "@/lib/auth/options";
+import { RESET_MAILS_PER_ACCOUNT, RESET_REQUEST_RATE_LIMIT, SESSION_EXPIRES_S, SIGN_IN_RATE_LIMIT } from "@/lib/auth/options";
 import { dbUploadGrants } from "@/lib/data/upload-grants";
 // @ts-expect-error -- plain JavaScript module loaded into the web server process
 import { clientAddress, parseTrustedProxies, rewriteRequest } from "../../workers/services/peer-address.mjs";
@@ -157,6 +157,21 @@ describe("limits keyed on the client address", () => {
     } finally {
       await app.close();
     }
+  });
+});
+
+describe("reset e-mails per account", () => {
+  it(`at most ${RESET_MAILS_PER_ACCOUNT.max} in ${RESET_MAILS_PER_ACCOUNT.window / 60} minutes to one account, whoever asks; the answer does not change`, async () => {
+    await signUpAndIn("mailbombed");
+    const to = email("mailbombed");
+    for (let i = 0; i < RESET_MAILS_PER_ACCOUNT.max + 2; i++) {
+      const r = await auth.api.requestPasswordReset({ body: { email: to, redirectTo: "/reset-password" } });
+      expect(r.status).toBe(true);
+    }
+    await waitForMail(to, /Reset your Lapbench password/);
+    await new Promise((r) => setTimeout(r, 1000)); // let any further mail arrive
+    const resets = inbox.filter((m) => m.to && !Array.isArray(m.to) && m.to.value.some((a) => a.address === to) && /Reset your/.test(m.subject ?? ""));
+    expect(resets).toHaveLength(RESET_MAILS_PER_ACCOUNT.max);
   });
 });
 

@@ -10,6 +10,7 @@ import type { Sequelize, Transaction } from "sequelize";
 import { initModels, LogFile, RideSession } from "../../models";
 import { parseCsvStream } from "../../lib/ingest/parse-csv-stream";
 import { parseGpx } from "../../lib/ingest/parse-gpx";
+import { GPX_MAX_BYTES } from "../../lib/ingest/limits";
 import { parseNmea } from "../../lib/ingest/parse-nmea";
 import { sessionStartTime } from "../../lib/ingest/session-start-time";
 import { IngestError } from "../../lib/ingest/ingest-error";
@@ -167,12 +168,14 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
       if (format === "nmea") {
         parsed = await parseNmea(stream, { fileName: log.name, limits, onProgress });
       } else {
+        // GPX is parsed whole: stop reading past its own limit, parseGpx words the refusal.
+        const gpxMax = Math.min(limits.maxBytes, limits.maxGpxBytes ?? GPX_MAX_BYTES);
         const parts: Buffer[] = [];
         let size = 0;
         for await (const chunk of stream) {
           size += (chunk as Buffer).length;
-          if (size > limits.maxBytes) throw new IngestError("FILE_TOO_LARGE", `"${log.name}" is larger than the ${Math.round(limits.maxBytes / 1048576)} MB limit.`);
           parts.push(chunk as Buffer);
+          if (size > gpxMax) break;
         }
         parsed = parseGpx(Buffer.concat(parts), { fileName: log.name, limits });
       }

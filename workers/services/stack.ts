@@ -8,6 +8,7 @@ import { randomBytes } from "node:crypto";
 import fs from "node:fs";
 import net from "node:net";
 import path from "node:path";
+import { pathToFileURL } from "node:url";
 import { config } from "../../lib/config";
 import { startMariadb, ensureDatabase } from "./mariadb";
 import { QueryTypes } from "sequelize";
@@ -216,8 +217,15 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     say(`starting the web app on http://localhost:${o.appPort} (listening on ${env.HOST})`);
     const web = spawnLogged(
       "web",
-      ["--import", PEER_ADDRESS_PRELOAD, nextCli(), o.dev ? "dev" : "start", "-p", String(o.appPort), "-H", String(env.HOST)],
-      { ...env, NODE_ENV: o.dev ? "development" : "production" },
+      o.dev
+        ? [nextCli(), "dev", "-p", String(o.appPort), "-H", String(env.HOST)]
+        : ["--import", PEER_ADDRESS_PRELOAD, nextCli(), "start", "-p", String(o.appPort), "-H", String(env.HOST)],
+      {
+        ...env,
+        NODE_ENV: o.dev ? "development" : "production",
+        // `next dev` serves from a forked child that inherits NODE_OPTIONS, not our argv.
+        ...(o.dev ? { NODE_OPTIONS: `${env.NODE_OPTIONS ?? ""} --import ${pathToFileURL(PEER_ADDRESS_PRELOAD).href}`.trim() } : {}),
+      },
       logDir,
       !!o.quiet,
     );

@@ -22,6 +22,8 @@ export async function startUploadHarness(): Promise<UploadHarness> {
   const apiKey = "sk_ingest_test_key";
   const storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "lapbench-ingest-"));
   const fake: UploadFake = await startUploadFake({ port: 0, storageDir, apiKey });
+  // The app accepts file URLs only on the configured storage service: this run's fake.
+  process.env.LAPBENCH_FILE_ORIGINS = fake.url;
   let handler: (req: Request) => Promise<Response> = async () => new Response(null, { status: 503 });
   const app = await serve((req) => handler(req));
   const h = createRouteHandler({

@@ -122,6 +122,15 @@ describe("log-file route handler with msw as the upload service", () => {
     expect(seen).toEqual([]);
   });
 
+  it("refuses a GPX file above its own limit (GPX is parsed whole) before anything is stored", async () => {
+    const big = await requestUpload([{ name: "day.gpx", size: 65 * 1024 * 1024, type: "application/gpx+xml" }]);
+    expect(big.status).toBe(400);
+    expect(((await big.json()) as { message: string }).message).toBe('"day.gpx" is 65.0 MiB; a GPX file is read whole, so the limit is 64 MiB. Split the track, or export it as NMEA 0183 or CSV.');
+    // The same size as CSV or NMEA is fine (streamed).
+    expect((await requestUpload([{ name: "day.nmea", size: 65 * 1024 * 1024, type: "text/plain" }])).status).toBe(200);
+    expect(seen.filter((x) => x.path === "/route-metadata")).toHaveLength(1);
+  });
+
   it("refuses a second file and a non-log file", async () => {
     const two = await requestUpload([{ name: "a.csv", size: 1, type: "text/csv" }, { name: "b.csv", size: 1, type: "text/csv" }]);
     expect(two.status).toBe(400);

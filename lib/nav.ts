@@ -19,6 +19,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/compare", label: "Compare", roles: ALL },
   { href: "/upload", label: "Upload", roles: ["owner", "engineer"] },
   { href: "/events", label: "Events", roles: ALL },
+  { href: "/season", label: "Season", roles: ALL },
   { href: "/tracks", label: "Tracks", roles: ALL },
   { href: "/bikes", label: "Bikes", roles: ALL },
   { href: "/settings", label: "Settings", roles: ALL },

@@ -6,6 +6,7 @@ import type { QueryInterface } from "sequelize";
 import * as auth from "./0001-auth";
 import * as domain from "./0002-domain";
 import * as storedAnalysis from "./0003-stored-analysis";
+import * as teamRecord from "./0030-team-record";
 
 export interface Migration {
   name: string;
@@ -17,4 +18,5 @@ export const migrations: Migration[] = [
   { name: "0001-auth", ...auth },
   { name: "0002-domain", ...domain },
   { name: "0003-stored-analysis", ...storedAnalysis },
+  { name: "0030-team-record", ...teamRecord },
 ];

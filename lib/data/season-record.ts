@@ -42,7 +42,7 @@ export interface SeasonRow {
   bestLapNumber: number | null;
   bestThreeMeanMs: number | null;
   topSpeedMs: number | null;
-  bestLapSectorsMs: number[] | null;
+  bestSectorsMs: number[] | null;
 }
 
 export interface Option {
@@ -152,7 +152,7 @@ export function toSeasonRow(r: RawRow, laps: RecordLap[]): SeasonRow {
     bestLapNumber: f.bestLapNumber,
     bestThreeMeanMs: f.bestThreeMeanMs,
     topSpeedMs: f.topSpeedMs,
-    bestLapSectorsMs: f.bestLapSectorsMs,
+    bestSectorsMs: f.bestSectorsMs,
   };
 }
 

@@ -22,8 +22,8 @@ export interface LapFigures {
   bestThreeMeanMs: number | null;
   /** Highest lap top speed over every lap of the session (m/s); null when none was recorded. */
   topSpeedMs: number | null;
-  /** Sector times of the best lap (ms), when the track has sector gates. */
-  bestLapSectorsMs: number[] | null;
+  /** Quickest time of each sector over the flying laps (ms), when the track has sector gates. */
+  bestSectorsMs: number[] | null;
 }
 
 export function lapFigures(laps: readonly RecordLap[]): LapFigures {
@@ -38,6 +38,17 @@ export function lapFigures(laps: readonly RecordLap[]): LapFigures {
     bestLapNumber: best?.number ?? null,
     bestThreeMeanMs: sorted.length >= 3 ? (sorted[0].lapTimeMs + sorted[1].lapTimeMs + sorted[2].lapTimeMs) / 3 : null,
     topSpeedMs: top,
-    bestLapSectorsMs: best?.sectorTimesMs && best.sectorTimesMs.length ? [...best.sectorTimesMs] : null,
+    bestSectorsMs: bestSectors(flying),
   };
+}
+
+function bestSectors(flying: readonly RecordLap[]): number[] | null {
+  let out: number[] | null = null;
+  for (const l of flying) {
+    const s = l.sectorTimesMs;
+    if (!s || s.length === 0) continue;
+    out ??= s.map(() => Infinity);
+    for (let i = 0; i < Math.min(out.length, s.length); i++) if (Number.isFinite(s[i]) && s[i] > 0 && s[i] < out[i]) out[i] = s[i];
+  }
+  return out && out.every(Number.isFinite) ? out : null;
 }

@@ -46,7 +46,10 @@ export default async function SeasonPage({ searchParams }: { searchParams: Searc
         <h1 className="text-2xl font-semibold">Season record</h1>
         <p className="mt-1 text-sm text-ink-400">
           Every analysed session by event: best lap, mean of the best three flying laps, conditions, the setup version it ran, findings and top speed.
-          {rec.riderOnly && " You see the sessions you rode."}
+          {rec.riderOnly && " You see the sessions you rode."}{" "}
+          <Link className="text-signal-400 hover:underline" href="/season/setup-effects">
+            Setup effects
+          </Link>
         </p>
       </div>
       <form className="card flex flex-wrap items-end gap-4" method="get" aria-label="Filters">

@@ -22,6 +22,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/season", label: "Season", roles: ALL },
   { href: "/tracks", label: "Tracks", roles: ALL },
   { href: "/bikes", label: "Bikes", roles: ALL },
+  { href: "/engines", label: "Engines", roles: ALL },
   { href: "/settings", label: "Settings", roles: ALL },
   { href: "/team", label: "Team", roles: ALL },
 ];

@@ -23,6 +23,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/tracks", label: "Tracks", roles: ALL },
   { href: "/bikes", label: "Bikes", roles: ALL },
   { href: "/engines", label: "Engines", roles: ALL },
+  { href: "/activity", label: "Activity", roles: ["owner", "engineer"] },
   { href: "/settings", label: "Settings", roles: ALL },
   { href: "/team", label: "Team", roles: ALL },
 ];

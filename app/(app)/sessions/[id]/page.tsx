@@ -18,6 +18,7 @@ import { getSetupSheetView } from "@/lib/data/setup-sheets";
 import { getSessionNotes } from "@/lib/data/session-notes";
 import { SetupSheet } from "@/components/session/setup-sheet";
 import { SessionNotes } from "@/components/session/session-notes";
+import { SessionRecord } from "@/components/record/session-record";
 
 export const metadata: Metadata = { title: "Session" };
 
@@ -85,6 +86,9 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
 
       <SetupSheet view={setup} />
       <SessionNotes view={notes} />
+      <Suspense fallback={block}>
+        <SessionRecord ctx={ctx} sessionId={s.id} />
+      </Suspense>
     </div>
   );
 }

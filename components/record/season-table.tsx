@@ -63,6 +63,8 @@ export function SeasonTable({ rows, speedUnit, pageSize = 25 }: { rows: SeasonRo
     columns,
     state: { sorting },
     onSortingChange: setSorting,
+    // Quickest first on the first click: lap times read best ascending (the library would start numbers descending).
+    sortDescFirst: false,
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
     getPaginationRowModel: getPaginationRowModel(),

@@ -20,8 +20,11 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/upload", label: "Upload", roles: ["owner", "engineer"] },
   { href: "/import-profiles", label: "Import profiles", roles: ["owner", "engineer"] },
   { href: "/events", label: "Events", roles: ALL },
+  { href: "/season", label: "Season", roles: ALL },
   { href: "/tracks", label: "Tracks", roles: ALL },
   { href: "/bikes", label: "Bikes", roles: ALL },
+  { href: "/engines", label: "Engines", roles: ALL },
+  { href: "/activity", label: "Activity", roles: ["owner", "engineer"] },
   { href: "/settings", label: "Settings", roles: ALL },
   { href: "/team", label: "Team", roles: ALL },
 ];

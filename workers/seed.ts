@@ -20,6 +20,7 @@ import { BIKE } from "../sample-logs/bike-model";
 import { DEMO_PASSWORD, DEMO_TEAM, DEMO_USERS } from "./demo-accounts";
 import { demoTrackInput } from "./demo-track";
 import { ingestNow } from "./ingest/ingest-now";
+import { seedHistory } from "./seed-history";
 
 const SAMPLE_DIR = path.join(config.root, "sample-logs", "files");
 
@@ -165,11 +166,14 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
 
   const sessionIds: Record<string, number> = {};
   const upload = opts.upload ?? uploadFromEnv();
-  if (!upload) {
+  const utapi = upload ? new UTApi({ token: upload.token, apiUrl: upload.apiUrl, ingestUrl: upload.ingestUrl, logLevel: "Error" }) : null;
+  // After the first event's sessions: a second event, a setup change with its effect, an engine nearing its rebuild.
+  const history = async () => Object.assign(sessionIds, await seedHistory({ sequelize, teamId, engineerId: userIds.engineer, rider: riderA, bike: bikes["Bike 27"], engine: engines["Bike 27"], track, utapi, say }));
+  if (!upload || !utapi) {
+    await history();
     say("no upload service configured (UPLOADTHING_TOKEN, UPLOADTHING_API_URL): demo sessions skipped — `npm start` runs one");
     return { teamId, userIds, trackId: track.id, sessionIds };
   }
-  const utapi = new UTApi({ token: upload.token, apiUrl: upload.apiUrl, ingestUrl: upload.ingestUrl, logLevel: "Error" });
 
   for (const d of DEMO_SESSIONS) {
     const started = Date.now();
@@ -204,6 +208,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
       say(`${d.file}: session ${sessionId} ready in ${Date.now() - started} ms — ${summary?.lapCount ?? 0} laps, findings: ${findings}`);
     }
   }
+  await history();
   return { teamId, userIds, trackId: track.id, sessionIds };
 }
 

@@ -6,6 +6,7 @@
  * top because a sheet is a record of what was fitted, not advice on what to fit.
  */
 import { useActionState } from "react";
+import Link from "next/link";
 import { saveSetupSheetAction } from "@/lib/actions/setup-sheets";
 import type { SetupActionState } from "@/lib/actions/setup-state";
 import type { SetupFieldDef, SetupSheetView, SetupValue, SetupValues, SetupVersion } from "@/lib/data/setup-sheets";
@@ -43,6 +44,13 @@ export function SetupSheet({ view }: { view: SetupSheetView }) {
         )}
       </div>
       <SetupCaution />
+      {latest && (
+        <p className="text-xs">
+          <Link className="text-signal-400 hover:underline" href={`/sessions/${view.sessionId}/setup`}>Setup history: open any version, compare two</Link>
+          {" · "}
+          <Link className="text-signal-400 hover:underline" href={`/season/setup-effects?session=${view.sessionId}`}>Effect on lap times</Link>
+        </p>
+      )}
       {latest && <LatestVersion view={view} latest={latest} />}
       {view.versions.length > 0 && <VersionList view={view} />}
       {view.canEdit ? (
@@ -97,7 +105,7 @@ function VersionList({ view }: { view: SetupSheetView }) {
       <ol className="space-y-1 text-sm" data-testid="setup-versions">
         {view.versions.map((v) => (
           <li key={v.id} data-testid="setup-version" className="rounded border border-ink-800 px-3 py-1.5">
-            <span className="font-semibold">Version {v.version}</span>
+            <Link href={`/sessions/${view.sessionId}/setup?v=${v.version}`} className="font-semibold text-signal-400 hover:underline">Version {v.version}</Link>
             <span className="text-ink-400">
               {" "}
               · {v.authorName ?? "a former member"} · {when(v.createdAt)}

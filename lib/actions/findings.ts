@@ -8,6 +8,7 @@ import { z } from "zod";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { acknowledgeFinding } from "@/lib/data/findings";
 import { HttpError } from "@/lib/http/http-error";
+import { recordActivity } from "@/lib/data/activity-log";
 
 export interface AcknowledgeState {
   ok?: boolean;
@@ -31,6 +32,7 @@ export async function acknowledgeFindingAction(_prev: AcknowledgeState, form: Fo
   }
   try {
     const f = await acknowledgeFinding(g.ctx, parsed.data.findingId, parsed.data.note);
+    await recordActivity(g.ctx, { action: "finding.acknowledge", subjectType: "finding", subjectId: f.id, sessionId: f.sessionId, summary: `Acknowledged finding: ${f.message.slice(0, 200)}${f.note ? ` — note: ${f.note.slice(0, 200)}` : ""}` });
     revalidatePath(`/sessions/${f.sessionId}`);
     revalidatePath("/home");
     return { ok: true, message: "Acknowledged." };

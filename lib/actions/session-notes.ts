@@ -14,6 +14,7 @@ import { createSessionNote, deleteSessionNote } from "@/lib/data/session-notes";
 import { fieldErrors } from "@/lib/data/form-fields";
 import { parseId } from "@/lib/data/setup-access";
 import { formValues, type SetupActionState } from "./setup-state";
+import { recordActivity } from "@/lib/data/activity-log";
 
 export type NoteActionState = SetupActionState;
 
@@ -49,6 +50,7 @@ export async function deleteNoteAction(_prev: NoteActionState, form: FormData): 
     const noteId = parseId(values.noteId);
     if (!noteId) return { ok: false, status: 404, message: "Note was not found in your team." };
     const { sessionId } = await deleteSessionNote(ctx, noteId);
+    await recordActivity(ctx, { action: "note.delete", subjectType: "note", subjectId: noteId, sessionId, summary: "Deleted a note" });
     revalidatePath(`/sessions/${sessionId}`);
     return { ok: true, id: noteId, message: "Note deleted." };
   });

@@ -8,6 +8,7 @@ import { revalidatePath } from "next/cache";
 import { saveSetupSheet, SETUP_FIELDS } from "@/lib/data/setup-sheets";
 import { parseId } from "@/lib/data/setup-access";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
+import { recordActivity } from "@/lib/data/activity-log";
 
 export async function saveSetupSheetAction(_prev: SetupActionState, form: FormData): Promise<SetupActionState> {
   const values = formValues(form);
@@ -17,6 +18,7 @@ export async function saveSetupSheetAction(_prev: SetupActionState, form: FormDa
     const baseVersion = Number(values.baseVersion ?? "0");
     const fields = Object.fromEntries(SETUP_FIELDS.map((f) => [f.name, values[f.name] ?? ""]));
     const saved = await saveSetupSheet(ctx, sessionId, { baseVersion: Number.isInteger(baseVersion) && baseVersion >= 0 ? baseVersion : -1, values: fields });
+    await recordActivity(ctx, { action: "setup.save", subjectType: "setup_sheet", subjectId: saved.id, sessionId, summary: `Saved setup version ${saved.version} (${saved.changed.length} changed: ${saved.changed.join(", ")})` });
     revalidatePath(`/sessions/${sessionId}`);
     const n = saved.changed.length;
     return { ok: true, id: saved.id, message: `Version ${saved.version} saved (${n} ${n === 1 ? "field" : "fields"} changed).` };

@@ -10,6 +10,7 @@ import { z } from "zod";
 import { auth } from "@/lib/auth/auth";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { teamRoles } from "@/lib/auth/permissions";
+import { recordActivity } from "@/lib/data/activity-log";
 
 export interface ActionState {
   ok?: boolean;
@@ -62,6 +63,7 @@ export async function changeRole(_prev: ActionState, form: FormData): Promise<Ac
   } catch (e) {
     return fail(e, "The role could not be changed.");
   }
+  await recordActivity(g.ctx, { action: "member.role", subjectType: "member", subjectId: parsed.data.memberId, summary: `Changed a member's role to ${parsed.data.role}` });
   revalidatePath("/team");
   return { ok: true, message: "Role changed." };
 }
@@ -76,6 +78,7 @@ export async function removeMember(_prev: ActionState, form: FormData): Promise<
   } catch (e) {
     return fail(e, "The member could not be removed.");
   }
+  await recordActivity(g.ctx, { action: "member.remove", subjectType: "member", subjectId: memberId, summary: "Removed a member from the team" });
   revalidatePath("/team");
   return { ok: true, message: "Member removed." };
 }

@@ -9,6 +9,7 @@ import { actionTeam } from "@/lib/auth/page-guard";
 import { saveBikeThresholds, saveTrackThresholds, type ThresholdOverrides } from "@/lib/data/thresholds";
 import { BIKE_THRESHOLD_FIELDS, TRACK_THRESHOLD_FIELDS } from "@/lib/findings/threshold-settings";
 import { HttpError } from "@/lib/http/http-error";
+import { recordActivity } from "@/lib/data/activity-log";
 
 export interface ThresholdState {
   ok?: boolean;
@@ -37,6 +38,7 @@ export async function saveThresholdsAction(_prev: ThresholdState, form: FormData
   if (Object.keys(errors).length) return { ok: false, errors, message: "Some values are out of range; nothing was saved." };
   try {
     const res = h.data.scope === "bike" ? await saveBikeThresholds(g.ctx, h.data.id, values) : await saveTrackThresholds(g.ctx, h.data.id, values);
+    await recordActivity(g.ctx, { action: "thresholds.save", subjectType: h.data.scope, subjectId: h.data.id, summary: `Saved ${h.data.scope} thresholds (${Object.keys(values).join(", ") || "all defaults"})` });
     revalidatePath("/settings");
     revalidatePath("/home");
     return { ok: true, message: `Saved. ${res.reanalysed} session${res.reanalysed === 1 ? "" : "s"} reanalysed with the new thresholds.` };

@@ -5,6 +5,7 @@ import { redirect } from "next/navigation";
 import { createTrack, saveTrack } from "@/lib/data/track-editor";
 import { parseId } from "@/lib/data/setup-access";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
+import { recordActivity } from "@/lib/data/activity-log";
 
 export async function createTrackAction(_prev: SetupActionState, form: FormData): Promise<SetupActionState> {
   const values = formValues(form);
@@ -31,6 +32,7 @@ export async function saveTrackAction(_prev: SetupActionState, form: FormData): 
   return withSetupRole({}, async (ctx) => {
     if (!trackId) return { ok: false, status: 404, message: "Track was not found in your team." };
     const r = await saveTrack(ctx, trackId, payload);
+    await recordActivity(ctx, { action: "track.save", subjectType: "track", subjectId: trackId, summary: `Saved track gates and corners; ${r.reanalysed} sessions analysed again` });
     revalidatePath("/tracks");
     revalidatePath(`/tracks/${trackId}`);
     const again = r.reanalysed === 0 ? "No analysed sessions on it yet." : r.reanalysed === 1 ? "1 session analysed again." : `${r.reanalysed} sessions analysed again.`;

@@ -108,7 +108,7 @@ export async function updateEngine(ctx: TeamContext, id: number, raw: unknown): 
 }
 
 /** One session's contribution: the stored summary where it answers, the samples otherwise. */
-async function sessionUsage(s: RideSession, rpm: number, ceilingRpm: number): Promise<LedgerSessionRow> {
+export async function sessionUsage(s: RideSession, rpm: number, ceilingRpm: number): Promise<LedgerSessionRow> {
   const stored = storedUsage(s.summary);
   const base = { sessionId: s.id, title: s.title ?? `Session ${s.id}`, startedAt: s.startedAt?.toISOString() ?? null };
   const complete = stored && typeof stored.hours === "number" && typeof stored.distanceKm === "number";

@@ -8,6 +8,7 @@ import * as domain from "./0002-domain";
 import * as storedAnalysis from "./0003-stored-analysis";
 import * as logFileHash from "./0010-log-file-hash";
 import * as uploadGrants from "./0020-upload-grants";
+import * as teamRecord from "./0030-team-record";
 import * as analysisVersion from "./0040-analysis-version";
 
 export interface Migration {
@@ -22,5 +23,6 @@ export const migrations: Migration[] = [
   { name: "0003-stored-analysis", ...storedAnalysis },
   { name: "0010-log-file-hash", ...logFileHash },
   { name: "0020-upload-grants", ...uploadGrants },
+  { name: "0030-team-record", ...teamRecord },
   { name: "0040-analysis-version", ...analysisVersion },
 ];

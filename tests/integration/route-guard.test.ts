@@ -14,6 +14,7 @@ import * as seriesRoute from "@/app/api/series/route";
 import * as lapsRoute from "@/app/api/sessions/[id]/laps/route";
 import * as lapsCsvRoute from "@/app/api/sessions/[id]/laps.csv/route";
 import * as lapGpxRoute from "@/app/api/sessions/[id]/laps/[lap]/gpx/route";
+import * as teamExportRoute from "@/app/api/team/export/route";
 import type { TeamRole } from "@/lib/auth/permissions";
 
 const ROLES: TeamRole[] = ["owner", "engineer", "rider", "viewer"];
@@ -44,6 +45,7 @@ describe("every API route refuses a request without a session", () => {
     "api/sessions/[id]/laps/route.ts",
     "api/sessions/[id]/laps.csv/route.ts",
     "api/sessions/[id]/laps/[lap]/gpx/route.ts",
+    "api/team/export/route.ts",
   ];
   const exempt = ["api/auth/[...all]/route.ts", "api/uploadthing/route.ts"]; // better-auth's own and the upload SDK's (guarded in its middleware)
 
@@ -68,6 +70,7 @@ describe("every API route refuses a request without a session", () => {
     ["GET /api/sessions/:id/laps", () => lapsRoute.GET(req(`/api/sessions/${aSessionRider}/laps`), params({ id: String(aSessionRider) }))],
     ["GET /api/sessions/:id/laps.csv", () => lapsCsvRoute.GET(req(`/api/sessions/${aSessionRider}/laps.csv`), params({ id: String(aSessionRider) }))],
     ["GET /api/sessions/:id/laps/:lap/gpx", () => lapGpxRoute.GET(req(`/api/sessions/${aSessionRider}/laps/1/gpx`), params({ id: String(aSessionRider), lap: "1" }))],
+    ["GET /api/team/export", () => teamExportRoute.GET(req("/api/team/export"), params({}))],
   ])("%s → 401", async (_name, call) => {
     const res = await call();
     expect(res.status).toBe(401);

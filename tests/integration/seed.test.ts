@@ -70,7 +70,8 @@ describe("seedDemo on a fresh database, run twice", () => {
     expect(second.teamId).toBe(first.teamId);
     expect(second.sessionIds).toEqual(first.sessionIds);
     const c = await counts(first.teamId);
-    expect(c).toMatchObject({ riders: 2, bikes: 2, engines: 2, tracks: 1, events: 1, sessions: 3, logFiles: 3, files: 3 });
+    // Three committed sample files and two sessions generated at seed time (workers/seed-history.ts).
+    expect(c).toMatchObject({ riders: 2, bikes: 2, engines: 2, tracks: 1, events: 2, sessions: 5, logFiles: 5, files: 5 });
     // Two headers (rider B's logger writes ';', decimal commas and ms): two Import profiles.
     expect(c.profiles).toBe(2);
     const users = await getSequelize().query<{ n: number }>(`SELECT COUNT(*) AS n FROM user WHERE email IN (${DEMO_USERS.map(() => "?").join(",")})`, {
@@ -90,7 +91,7 @@ describe("seedDemo on a fresh database, run twice", () => {
     expect(track!.corners!.map((c) => c.name)).toEqual(CIRCUIT.corners.map((c) => c.name));
     // Outline at ~2 m spacing over the lap: length / 2 m points, plus the closing one.
     expect(Math.abs(track!.outline!.length - CIRCUIT.lengthM / 2)).toBeLessThan(3);
-    const event = await RaceEvent.findOne({ where: { teamId: first.teamId } });
+    const event = await RaceEvent.findOne({ where: { teamId: first.teamId, name: "Spring test days" } });
     expect(event!.trackId).toBe(track!.id);
     for (const b of await Bike.findAll({ where: { teamId: first.teamId } })) {
       expect(b.revCeilingRpm).toBe(BIKE.revCeilingRpm);
@@ -134,5 +135,31 @@ describe("seedDemo on a fresh database, run twice", () => {
     const s = await RideSession.findByPk(first.sessionIds["demo-session-20min.csv"]);
     expect(s!.riderId).toBe(rider!.id);
     expect((await Bike.findByPk(s!.bikeId!))!.name).toBe("Bike 27");
+  });
+});
+
+describe("the demo team's history", () => {
+  it("holds two events, a setup change with a measurable lap-time effect and an engine past 80 % of its interval", async () => {
+    const { requireTeam } = await import("@/lib/auth/guard");
+    const { getSetupEffects } = await import("@/lib/data/setup-history");
+    const { getSeasonRecord } = await import("@/lib/data/season-record");
+    const { enginesOfBike } = await import("@/lib/data/engines");
+    const { signInCookie } = await import("./helpers/teams");
+    const engineer = DEMO_USERS.find((u) => u.role === "engineer")!;
+    const { DEMO_PASSWORD } = await import("@/workers/demo-accounts");
+    const ctx = await requireTeam(new Headers({ cookie: await signInCookie(engineer.email, DEMO_PASSWORD) }));
+    const record = await getSeasonRecord(ctx);
+    expect(record.events.filter((e) => e.eventId != null).map((e) => e.eventName)).toEqual(["Spring test days", "Summer round"]);
+    const { effects } = await getSetupEffects(ctx, { sessionId: first.sessionIds["summer-round-fp2.csv"] });
+    const e = effects.find((x) => x.after.sessionId === first.sessionIds["summer-round-fp2.csv"])!;
+    expect(e.changes.map((c) => c.field)).toContain("shockReboundClicks");
+    // More grip in the second outing's rider profile: quicker by well over the 1 ms a lap time is stored to.
+    expect(e.bestLapDeltaMs!).toBeLessThan(-200);
+    expect(e.bestThreeMeanDeltaMs!).toBeLessThan(-200);
+    const bike27 = (await Bike.findOne({ where: { teamId: first.teamId, name: "Bike 27" } }))!;
+    const { engines } = await enginesOfBike(ctx, bike27.id);
+    const used = engines.find((x) => x.serial === "LV-E101")!.ledger.usedPct!;
+    expect(used).toBeGreaterThan(80);
+    expect(used).toBeLessThan(100);
   });
 });

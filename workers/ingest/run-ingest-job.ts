@@ -20,6 +20,7 @@ import type { ParsedSeries } from "../../lib/ingest/parsed-series";
 import type { ImportPreview } from "../../lib/data/imports";
 import { openSampleWriter, writeSessionSamples } from "../../lib/data/samples";
 import { ANALYSED_ROLES, analyseAndStore } from "./analyse-session";
+import { notifySessionReady } from "../../lib/mail/session-ready";
 
 export class RetryableError extends Error {}
 
@@ -192,6 +193,7 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
       });
     }
     timings.commitMs = performance.now() - tCallbackEnd;
+    await notifySessionReady(sequelize, sessionId); // "session ready" mail; never throws
     return "ready";
   } catch (e) {
     await setProgress.settle();

@@ -40,6 +40,8 @@ export default async function EventsPage() {
               <span className="num">{dates(e.startsOn, e.endsOn)}</span>
               {" · "}
               {e.trackId ? <Link className="text-signal-400 hover:underline" href={`/tracks/${e.trackId}`}>{e.trackName}</Link> : <span className="text-ink-400">no track</span>}
+              {" · "}
+              <Link className="text-signal-400 hover:underline" href={`/events/${e.id}/report`}>Report</Link>
             </p>
           </header>
           {e.sessions.length === 0 ? (

@@ -4,6 +4,7 @@ import { pageTeam } from "@/lib/auth/page-guard";
 import { roleCan } from "@/lib/auth/guard";
 import { RecentSessions } from "@/components/sessions/recent-sessions";
 import { FindingsToReview } from "@/components/findings/findings-to-review";
+import { EngineMarks } from "@/components/record/engine-marks";
 
 export const metadata: Metadata = { title: "Team home" };
 
@@ -28,6 +29,9 @@ export default async function HomePage() {
           </Suspense>
         </section>
         <aside className="space-y-6">
+          <Suspense fallback={null}>
+            <EngineMarks ctx={ctx} />
+          </Suspense>
           <section className="card" aria-labelledby="findings">
             <h2 id="findings" className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-300">Findings to review</h2>
             <Suspense fallback={<div className="h-16 animate-pulse rounded bg-ink-850" />}>

@@ -6,6 +6,7 @@ import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
 import { BIKE_THRESHOLD_FIELDS, TRACK_THRESHOLD_FIELDS, round, shownDefault, type ThresholdField } from "@/lib/findings/threshold-settings";
 import { CautionNote } from "@/components/analysis/caution-note";
 import { ThresholdForm, type FormField } from "@/components/settings/threshold-form";
+import { MailPreferencesSection } from "@/components/record/mail-preferences-section";
 
 export const metadata: Metadata = { title: "Settings" };
 
@@ -27,6 +28,7 @@ export default async function SettingsPage() {
         <p className="text-xs font-semibold uppercase tracking-wider text-trace-400">{ctx.teamName}</p>
         <h1 className="text-2xl font-semibold">Settings</h1>
       </div>
+      <MailPreferencesSection ctx={ctx} />
       <section className="space-y-3" aria-labelledby="th">
         <h2 id="th" className="text-sm font-semibold uppercase tracking-wide text-ink-300">Findings thresholds</h2>
         <p className="max-w-3xl text-sm text-ink-300">

@@ -3,6 +3,7 @@ import { pageTeam } from "@/lib/auth/page-guard";
 import { roleCan } from "@/lib/auth/guard";
 import { listMembers, listPendingInvitations } from "@/lib/data/team";
 import { InviteForm, RoleForm, RemoveMemberForm, CancelInvitationForm } from "@/components/team/team-forms";
+import { TeamExportCard } from "@/components/record/team-export-card";
 
 export const metadata: Metadata = { title: "Team" };
 
@@ -17,6 +18,7 @@ export default async function TeamPage() {
         <h1 className="text-2xl font-semibold">Team</h1>
         {!manage && <p className="mt-1 text-sm text-ink-400">Only the team owner changes members and roles.</p>}
       </div>
+      <TeamExportCard role={ctx.role} />
       <section className="card" aria-labelledby="members">
         <h2 id="members" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-300">Members</h2>
         <table className="table-plain" data-testid="members-table">

@@ -22,6 +22,7 @@ import { ReimportButton } from "@/components/session/reimport-button";
 import { DuplicateChoice } from "@/components/session/duplicate-choice";
 import { getHeldDuplicate, getSessionTrackPanel } from "@/lib/data/session-track";
 import { SessionTrack } from "@/components/session/session-track";
+import { SessionRecord } from "@/components/record/session-record";
 
 export const metadata: Metadata = { title: "Session" };
 
@@ -107,6 +108,9 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
 
       <SetupSheet view={setup} />
       <SessionNotes view={notes} />
+      <Suspense fallback={block}>
+        <SessionRecord ctx={ctx} sessionId={s.id} />
+      </Suspense>
     </div>
   );
 }

@@ -246,6 +246,8 @@ export function ChartPane(props: ChartPaneProps) {
               if (x1 <= x0) return;
               c.fillStyle = k % 2 === 0 ? "rgba(79,209,197,0.06)" : "rgba(228,232,237,0.025)";
               c.fillRect(x0, u.bbox.top, x1 - x0, u.bbox.height);
+              // Named where it starts in view, or where enough of it shows for the name.
+              if (x0 > u.valToPos(s.fromX, "x", true) && x1 - x0 < 28 * pr) return;
               c.fillStyle = "#7d8896";
               c.fillText(s.name, x0 + 4 * pr, u.bbox.top + 11 * pr);
             });

@@ -175,7 +175,7 @@ export function ChartPane(props: ChartPaneProps) {
     }));
     // Every pane keeps a right-hand gutter of the same width, so the plotting areas — and the
     // corners on their x axes — line up from pane to pane.
-    if (!yAxes.some((a) => a.side === 1)) yAxes.push({ ...AXIS, scale: yAxes[0]?.scale ?? "y", side: 1, size: 52, grid: { show: false }, ticks: { show: false }, values: () => [] });
+    if (!yAxes.some((a) => a.side === 1)) yAxes.push({ ...AXIS, scale: yAxes[0]?.scale ?? "y", side: 1, size: 52, grid: { show: false }, ticks: { show: false }, values: (_u: uPlot, splits: number[]) => splits.map(() => "") });
     const opts: uPlot.Options = {
       width: Math.max(200, node.clientWidth),
       height: latest.current.height,

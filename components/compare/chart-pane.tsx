@@ -171,8 +171,14 @@ export function ChartPane(props: ChartPaneProps) {
       size: 52,
       grid: { ...AXIS.grid, show: a.side === 3 },
       ...(a.positiveOnly ? { values: (_u: uPlot, splits: number[]) => splits.map((v) => (v >= 0 ? String(Math.round(v * 100) / 100) : "")) } : {}),
-      ...(a.label ? { label: a.label, labelSize: 14, labelFont: "10px var(--font-sans), sans-serif" } : {}),
+      // Every axis reserves room for a label (a blank one if none), so all panes plot equally wide.
+      label: a.label ?? " ",
+      labelSize: 14,
+      labelFont: "10px var(--font-sans), sans-serif",
     }));
+    // Every pane keeps a right-hand gutter of the same width, so the plotting areas — and the
+    // corners on their x axes — line up from pane to pane.
+    if (!yAxes.some((a) => a.side === 1)) yAxes.push({ ...AXIS, scale: yAxes[0]?.scale ?? "y", side: 1, size: 52, label: " ", labelSize: 14, grid: { show: false }, ticks: { show: false }, values: (_u: uPlot, splits: number[]) => splits.map(() => "") });
     const opts: uPlot.Options = {
       width: Math.max(200, node.clientWidth),
       height: latest.current.height,
@@ -246,6 +252,8 @@ export function ChartPane(props: ChartPaneProps) {
               if (x1 <= x0) return;
               c.fillStyle = k % 2 === 0 ? "rgba(79,209,197,0.06)" : "rgba(228,232,237,0.025)";
               c.fillRect(x0, u.bbox.top, x1 - x0, u.bbox.height);
+              // Named where it starts in view, or where enough of it shows for the name.
+              if (x0 > u.valToPos(s.fromX, "x", true) && x1 - x0 < 28 * pr) return;
               c.fillStyle = "#7d8896";
               c.fillText(s.name, x0 + 4 * pr, u.bbox.top + 11 * pr);
             });

@@ -320,9 +320,9 @@ export function CompareView({ sessions, initialUnits }: { sessions: PickerSessio
 
   return (
     <div className="grid gap-6 lg:grid-cols-[260px_minmax(0,1fr)]" data-testid="compare" data-series-url={shown?.url ?? ""} data-drawn-for={drawnFor ?? ""} data-mode={mode}>
-      <aside className="card space-y-5 self-start p-4 lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)] lg:overflow-y-auto" aria-label="Compare options">
+      <aside className="card flex flex-col gap-5 self-start p-4 lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)]" aria-label="Compare options">
         {laps.length > 0 && (
-          <section aria-label="Track outline" className="space-y-2">
+          <section aria-label="Track outline" className="shrink-0 space-y-2">
             {track ? (
               <>
                 <TrackMap x={track.x} eastM={track.east} northM={track.north} values={track.values} valueLabel={track.label} cursorX={cursorX} diverging={track.diverging} size={OUTLINE_PX} corners={track.corners} />
@@ -341,6 +341,8 @@ export function CompareView({ sessions, initialUnits }: { sessions: PickerSessio
             )}
           </section>
         )}
+        {/* Everything below the outline scrolls on its own, so the outline stays in view. */}
+        <div className="min-h-0 space-y-5 lg:overflow-y-auto lg:pr-1">
         <LapPicker sessions={sessions} selected={laps} onChange={setLaps} />
         <ChannelPicker selected={roles} onChange={(r) => setView({ roles: r.join(",") })} />
         <div>
@@ -360,6 +362,7 @@ export function CompareView({ sessions, initialUnits }: { sessions: PickerSessio
         <div>
           <p className="label">Units</p>
           <UnitToggle initial={initialUnits} />
+        </div>
         </div>
       </aside>
 

@@ -27,13 +27,16 @@ export interface BikeInfo {
   id: number;
   name: string;
   wheelCircRearMm: number | null;
+  wheelCircFrontMm?: number | null;
   primaryRatio: number | null;
   gearboxRatios: number[] | null;
   sprocketFront: number | null;
   sprocketRear: number | null;
   forkStrokeMm: number | null;
   shockStrokeMm: number | null;
+  /** Rear tyre crown radius. */
   tyreCrownRadiusMm: number | null;
+  tyreCrownRadiusFrontMm?: number | null;
   thresholds: Record<string, number>;
 }
 

@@ -66,8 +66,8 @@ export interface SlipAnalysis {
   reason?: string;
   targetSlip: number;
   targetSource: "bike" | "track" | "default";
-  zero: { ratio: number; applied: boolean; sampleCount: number };
-  lean: { possible: boolean; applied: boolean; crownRadiusMm: number | null };
+  zero: { ratio: number; applied: boolean; sampleCount: number; reason?: string | null };
+  lean: { possible: boolean; applied: boolean; crownRadiusMm: number | null; frontCrownRadiusMm: number | null };
   laps: LapInfo[];
   lap: number | null;
   /** Selected lap on a 2 m grid: distance (m), slip (fraction), throttle (%). */
@@ -85,14 +85,17 @@ function slipCore(base: AnalysisBase, leanAsked: boolean): { result: SlipAnalysi
   const target = thresholdOf(base, "wheelSpinTargetSlip");
   const minThrottle = thresholdOf(base, "wheelSpinMinThrottlePct").value;
   const crown = base.bike?.tyreCrownRadiusMm ?? null;
+  const frontCrown = base.bike?.tyreCrownRadiusFrontMm ?? null;
   const rearCirc = base.bike?.wheelCircRearMm ?? null;
-  const leanPossible = !!(series.channels.lean_angle && crown && rearCirc);
+  const frontCirc = base.bike?.wheelCircFrontMm ?? null;
+  // Both tyres or neither: correcting one wheel only biases the slip at lean.
+  const leanPossible = !!(series.channels.lean_angle && crown && rearCirc && frontCrown && frontCirc);
   const empty: SlipAnalysis = {
     available: false,
     targetSlip: target.value,
     targetSource: target.source,
     zero: { ratio: 1, applied: false, sampleCount: 0 },
-    lean: { possible: leanPossible, applied: false, crownRadiusMm: crown },
+    lean: { possible: leanPossible, applied: false, crownRadiusMm: crown, frontCrownRadiusMm: frontCrown },
     laps: base.lapInfo,
     lap: null,
     trace: null,
@@ -109,7 +112,9 @@ function slipCore(base: AnalysisBase, leanAsked: boolean): { result: SlipAnalysi
   const leanApplied = leanAsked && leanPossible;
   const slip = driveSlip(series, {
     zeroRatio: zero.ratio,
-    lean: leanApplied ? { rearRadiusM: rearCirc! / 1000 / (2 * Math.PI), rearCrownRadiusM: crown! / 1000 } : undefined,
+    lean: leanApplied
+      ? { rearRadiusM: rearCirc! / 1000 / (2 * Math.PI), rearCrownRadiusM: crown! / 1000, frontRadiusM: frontCirc! / 1000 / (2 * Math.PI), frontCrownRadiusM: frontCrown! / 1000 }
+      : undefined,
   });
   const throttle = series.channels.throttle;
   const spins: SpinRow[] = spinEvents(slip, throttle, series.timeS, { targetSlip: target.value, minThrottlePct: minThrottle }).map((e) => {
@@ -129,8 +134,8 @@ function slipCore(base: AnalysisBase, leanAsked: boolean): { result: SlipAnalysi
     result: {
       ...empty,
       available: true,
-      zero: { ratio: zero.ratio, applied: zero.applied, sampleCount: zero.sampleCount },
-      lean: { possible: leanPossible, applied: leanApplied, crownRadiusMm: crown },
+      zero: { ratio: zero.ratio, applied: zero.applied, sampleCount: zero.sampleCount, reason: zero.reason ?? null },
+      lean: { possible: leanPossible, applied: leanApplied, crownRadiusMm: crown, frontCrownRadiusMm: frontCrown },
       spins,
       exits,
       scatter: { throttlePct: Array.from(sc.throttlePct, (x) => Math.round(x * 10) / 10), slip: Array.from(sc.slip, (x) => Math.round(x * 1e4) / 1e4) },

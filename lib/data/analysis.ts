@@ -68,6 +68,8 @@ export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title"
         forkStrokeMm: bikeRow.forkStrokeMm,
         shockStrokeMm: bikeRow.shockStrokeMm,
         tyreCrownRadiusMm: bikeRow.tyreCrownRadiusMm,
+        tyreCrownRadiusFrontMm: bikeRow.tyreCrownRadiusFrontMm ?? null,
+        wheelCircFrontMm: bikeRow.wheelCircFrontMm,
         thresholds: jsonColumn<Record<string, number>>(bikeRow.thresholds) ?? {},
       }
     : null;

@@ -33,6 +33,8 @@ export interface SessionOverview {
   riderName: string | null;
   fileName: string | null;
   format: ImportPreview["format"] | null;
+  /** What the reader skipped or corrected in the file (e.g. "412 sentences skipped: …"). */
+  importNotes: string[];
   channels: ChannelRow[];
 }
 
@@ -61,6 +63,7 @@ export async function getSessionOverview(ctx: TeamContext, sessionId: number): P
     riderName: rider?.name ?? null,
     fileName: log?.name ?? null,
     format: preview?.format ?? null,
+    importNotes: ((row?.summary as { importNotes?: unknown } | null)?.importNotes as string[] | undefined)?.filter((x) => typeof x === "string") ?? [],
     channels: channels.map((c) => {
       const d = displayUnitFor(c.role, c.unit);
       return {

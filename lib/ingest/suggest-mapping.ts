@@ -18,7 +18,7 @@ export interface MappingSuggestion extends Mapping {
 
 /** Name patterns per role, tried in order (acceleration before latitude/longitude: "accel lat"). */
 const RULES: { role: ChannelRole; pattern: RegExp; confidence: number }[] = [
-  { role: "time", pattern: /^(time|timestamp|time stamp|elapsed|elapsed time|t|clock|utc time|log time)$/, confidence: 0.95 },
+  { role: "time", pattern: /^(time|timestamp|time stamp|elapsed|elapsed time|t|clock|utc time|time utc|date time|datetime|log time)$/, confidence: 0.95 },
   { role: "accel_long", pattern: /\b(accel|acceleration|acc)\b.*\b(x|long|longitudinal|fwd|forward)\b|\b(longitudinal|long) (accel|acceleration|g)\b/, confidence: 0.85 },
   { role: "accel_lat", pattern: /\b(accel|acceleration|acc)\b.*\b(y|lat|lateral|side)\b|\b(lateral|lat) (accel|acceleration|g)\b/, confidence: 0.85 },
   { role: "speed_front", pattern: /\b(front wheel speed|front speed|wheel speed front|speed front|front wheel)\b/, confidence: 0.95 },

@@ -6,6 +6,7 @@ import type { QueryInterface } from "sequelize";
 import * as auth from "./0001-auth";
 import * as domain from "./0002-domain";
 import * as storedAnalysis from "./0003-stored-analysis";
+import * as bikeFrontCrownTrackZone from "./0015-bike-front-crown-track-zone";
 
 export interface Migration {
   name: string;
@@ -17,4 +18,5 @@ export const migrations: Migration[] = [
   { name: "0001-auth", ...auth },
   { name: "0002-domain", ...domain },
   { name: "0003-stored-analysis", ...storedAnalysis },
+  { name: "0015-bike-front-crown-track-zone", ...bikeFrontCrownTrackZone },
 ];

@@ -124,6 +124,11 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
       },
       { where: { id: sessionId }, transaction: t },
     );
+    if (parsed.notes?.length) {
+      // What the reader skipped or corrected, shown on the session page.
+      const row = await RideSession.findByPk(sessionId, { attributes: ["summary"], transaction: t });
+      await RideSession.update({ summary: { ...((row?.summary as object | null) ?? {}), importNotes: parsed.notes } }, { where: { id: sessionId }, transaction: t });
+    }
     const pagesMs = summary.pages?.ms ?? 0;
     timings.analysisMs = performance.now() - ta - pagesMs;
     timings.pagesMs = pagesMs;

@@ -52,6 +52,16 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
       {ready && (
         <>
           <SessionAnalysisLinks sessionId={s.id} />
+          {o.importNotes.length > 0 && (
+            <section className="card" aria-labelledby="import-notes" data-testid="import-notes">
+              <h2 id="import-notes" className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-300">Read from the file</h2>
+              <ul className="list-disc space-y-1 pl-5 text-sm text-ink-200">
+                {o.importNotes.map((n) => (
+                  <li key={n}>{n}</li>
+                ))}
+              </ul>
+            </section>
+          )}
           <Suspense fallback={block}>
             <SessionFindings sessionId={s.id} teamId={ctx.teamId} canAcknowledge={canAcknowledge} />
           </Suspense>

@@ -7,7 +7,8 @@ import { extractFixes } from "@/lib/laps/extract-fixes";
 import { findGateCrossings } from "@/lib/laps/find-gate-crossings";
 import { isFlyingLap, type Lap, type SeriesLike, type TrackGates } from "@/lib/laps/types";
 import { runFindings } from "@/lib/findings/run-findings";
-import { DEFAULT_THRESHOLDS, type ThresholdKey } from "@/lib/findings/thresholds";
+import { collapseFindings } from "@/lib/findings/collapse-findings";
+import { DEFAULT_THRESHOLDS, NO_REV_CEILING_NOTE, type ThresholdKey } from "@/lib/findings/thresholds";
 import type { Finding, FindingKind } from "@/lib/findings/types";
 import { engineUsage, type EngineUsage } from "@/lib/engine/engine-usage";
 
@@ -51,7 +52,8 @@ export interface SessionEngineSummary {
   distanceM: number;
   rpmThreshold: number;
   timeAboveRpmS: number;
-  ceilingRpm: number;
+  /** The bike's rev ceiling; null when none is set (then nothing is checked against one). */
+  ceilingRpm: number | null;
   ceilingExceedances: number;
   timeAboveCeilingS: number;
   maxRpm: number | null;
@@ -73,6 +75,8 @@ export interface SessionAnalysisSummary {
   distanceM: number | null;
   findingCounts: Partial<Record<FindingKind, number>>;
   engine: SessionEngineSummary | null;
+  /** What the analysis could not check or fell back on, one sentence each (shown on the session page). */
+  analysisNotes?: string[];
   /** Laps and findings, ms. */
   analysisMs: number;
   /**
@@ -205,7 +209,7 @@ export function analyseSeries(
 
   const thresholds = mergeThresholds(bike?.thresholds, track?.thresholds);
   const pitTimes = pitLaneTimes(series, gates);
-  const findings = runFindings(series, {
+  const events = runFindings(series, {
     laps,
     track: {
       pitSpeedLimitMs: finiteOrNull(track?.pitSpeedLimitMs) ?? undefined,
@@ -218,6 +222,8 @@ export function analyseSeries(
     },
     thresholds,
   });
+  // Repeats of one kind on one channel become one finding naming the laps, the count and the worst.
+  const findings = collapseFindings(events);
   const lapIndex = new Map(laps.map((l, k) => [l.number, k]));
   const analysedFindings: AnalysedFinding[] = findings.map((f) => {
     const k = f.lapNumber == null ? undefined : lapIndex.get(f.lapNumber);
@@ -239,12 +245,14 @@ export function analyseSeries(
     if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]) && (topSpeedMs === null || v[i] > topSpeedMs)) topSpeedMs = v[i];
   }
   const counts: Partial<Record<FindingKind, number>> = {};
-  for (const f of findings) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
+  for (const f of events) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
 
   let engine: SessionEngineSummary | null = null;
   if (hasFinite(series.channels.engine_rpm)) {
-    const ceilingRpm = finiteOrNull(bike?.revCeilingRpm) ?? thresholds.revCeilingRpm ?? DEFAULT_THRESHOLDS.revCeilingRpm.value;
-    const u: EngineUsage = engineUsage(series, ENGINE_LEDGER_RPM_SHARE * ceilingRpm, ceilingRpm);
+    // No ceiling is assumed for a bike without one (NO_REV_CEILING_NOTE); time above is then
+    // counted at 12 000 rpm, as the Engine ledger does (lib/data/engines.ts defaultLedgerRpm).
+    const ceilingRpm = finiteOrNull(bike?.revCeilingRpm);
+    const u: EngineUsage = engineUsage(series, ceilingRpm ? ENGINE_LEDGER_RPM_SHARE * ceilingRpm : 12_000, ceilingRpm ?? Infinity);
     engine = {
       runningS: u.runningS,
       hours: u.runningS / 3600,
@@ -257,6 +265,8 @@ export function analyseSeries(
       maxRpm: finiteOrNull(u.maxRpm),
     };
   }
+  const analysisNotes: string[] = [];
+  if (engine && engine.ceilingRpm === null) analysisNotes.push(NO_REV_CEILING_NOTE);
   const n = series.timeS.length;
   return {
     laps: analysedLaps,
@@ -271,6 +281,7 @@ export function analyseSeries(
       distanceM: hasDistance && n ? dist.distanceM[n - 1] : null,
       findingCounts: counts,
       engine,
+      analysisNotes,
     },
   };
 }

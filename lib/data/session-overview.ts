@@ -63,7 +63,10 @@ export async function getSessionOverview(ctx: TeamContext, sessionId: number): P
     riderName: rider?.name ?? null,
     fileName: log?.name ?? null,
     format: preview?.format ?? null,
-    importNotes: ((row?.summary as { importNotes?: unknown } | null)?.importNotes as string[] | undefined)?.filter((x) => typeof x === "string") ?? [],
+    importNotes: [
+      ...(((row?.summary as { importNotes?: unknown } | null)?.importNotes as string[] | undefined) ?? []),
+      ...(((row?.summary as { analysisNotes?: unknown } | null)?.analysisNotes as string[] | undefined) ?? []),
+    ].filter((x) => typeof x === "string"),
     channels: channels.map((c) => {
       const d = displayUnitFor(c.role, c.unit);
       return {

@@ -117,7 +117,14 @@ function slipCore(base: AnalysisBase, leanAsked: boolean): { result: SlipAnalysi
       : undefined,
   });
   const throttle = series.channels.throttle;
-  const spins: SpinRow[] = spinEvents(slip, throttle, series.timeS, { targetSlip: target.value, minThrottlePct: minThrottle }).map((e) => {
+  // The same spin rule as the wheel-spin finding: target, throttle, minimum duration, wheelie guard.
+  const spins: SpinRow[] = spinEvents(slip, throttle, series.timeS, {
+    targetSlip: target.value,
+    minThrottlePct: minThrottle,
+    minDurationS: thresholdOf(base, "wheelSpinMinDurationS").value,
+    frontSpeedMs: series.channels.speed_front,
+    wheelieDecelMs2: thresholdOf(base, "wheelieDecelMs2").value,
+  }).map((e) => {
     const k = lapAt(base, e.startTimeS);
     const d = k >= 0 ? base.dist.distanceM[e.startIndex] - base.dist.lapStartDistanceM[k] : NaN;
     return { lap: k >= 0 ? base.laps[k].number : null, corner: k >= 0 ? cornerAt(base.corners, d) : null, startTimeS: e.startTimeS, durationS: e.durationS, peakSlip: e.peakSlip, distanceM: Number.isFinite(d) ? d : null };
@@ -309,8 +316,8 @@ export function computeGears(base: AnalysisBase): GearAnalysis {
 
 /* ──────────────────────────── Rider brief ───────────────────────────── */
 
-/** Front pressure that counts as the start of braking in the brief: 2 bar, as the findings' brake threshold (common practice). */
-export const BRIEF_BRAKE_THRESHOLD_PA = DEFAULT_THRESHOLDS.brakeOnStraightPressurePa.value;
+/** Default front pressure that counts as the start of braking in the brief: the shared brake-on threshold (2 bar, Lapbench default). */
+export const BRIEF_BRAKE_THRESHOLD_PA = DEFAULT_THRESHOLDS.brakeAppliedPa.value;
 
 export interface BriefCorner {
   name: string;
@@ -364,12 +371,13 @@ function briefCore(base: AnalysisBase): BriefCore {
   if (!v || !p) return { out: { ...out, reason: "The brief needs the front brake pressure and a speed channel; this session lacks one of them." }, braking: null };
   if (base.corners.length === 0) return { out: { ...out, reason: "No corners were found on the best lap." }, braking: null };
   const bestLap = base.bestLap;
+  const brakeOnPa = thresholdOf(base, "brakeAppliedPa").value;
 
   const lapPoints = (l: Lap) => {
     const k = base.laps.indexOf(l);
     const [from, to] = lapRange(series.timeS, l);
     const d = lapDistance(base, k, from, to);
-    return { from, d, points: brakingPoints({ distanceM: d, speedMs: v.subarray(from, to), brakeFrontPa: p.subarray(from, to) }, base.corners, { thresholdPa: BRIEF_BRAKE_THRESHOLD_PA }) };
+    return { from, d, points: brakingPoints({ distanceM: d, speedMs: v.subarray(from, to), brakeFrontPa: p.subarray(from, to) }, base.corners, { thresholdPa: brakeOnPa }) };
   };
   const ref = lapPoints(bestLap);
 

@@ -87,9 +87,9 @@ export const DEFAULT_THRESHOLDS = {
     source: "Lapbench default",
   },
   wheelieDecelMs2: {
-    value: 3,
+    value: 5,
     unit: "m/s²",
-    rationale: "A front wheel slowing faster than 3 m/s² with the throttle open is in the air (a wheelie), not braking: slip measured against it is not spin.",
+    rationale: "A front wheel slowing faster than 5 m/s² with the throttle open is in the air (a wheelie), not braking: slip measured against it is not spin.",
     source: "Lapbench default",
   },
   wheelSpinMinThrottlePct: {

@@ -1,3 +1,4 @@
+import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
 import { describe, expect, it } from "vitest";
 import type { SessionSeries } from "@/lib/channels/roles";
 import { slipRatio } from "@/lib/slip/slip-ratio";
@@ -155,6 +156,36 @@ describe("spinEvents", () => {
     const slip = driveSlip(s, { zeroRatio: 1 });
     expect(spinEvents(slip, s.channels.throttle, s.timeS, { minDurationS: 0.5 })).toHaveLength(0);
     expect(spinEvents(slip, s.channels.throttle, s.timeS, { minThrottlePct: 95 })).toHaveLength(0);
+  });
+});
+
+describe("spinEvents: one rule for the page and the finding, and the wheelie guard", () => {
+  it("by default a 0.2 s spin is too short: the minimum is the finding's own setting (0.3 s)", () => {
+    const s = makeSeries({ mismatch: 0 });
+    // Spin only 20 samples (0.2 s) of the 40 planted.
+    for (let i = 320; i < 340; i++) s.channels.speed_rear![i] = 50;
+    const slip = driveSlip(s, { zeroRatio: 1 });
+    expect(DEFAULT_THRESHOLDS.wheelSpinMinDurationS.value).toBe(0.3);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS)).toHaveLength(0);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, { minDurationS: 0.1 })).toHaveLength(1);
+  });
+
+  it("a front wheel slowing at 5 m/s² with the throttle open (in the air) is a wheelie, not spin", () => {
+    // Rear steady at 50 m/s; the lifted front slows 5 m/s² for 0.6 s from 3.0 s and lands at
+    // 3.6 s back at road speed: rear/front − 1 reaches 50/47 − 1 = 6.4 % (arithmetic), so the
+    // target is set to 3 % to make the slip count as spin without the guard.
+    const s = makeSeries({ mismatch: 0, n: 500 });
+    const f = s.channels.speed_front!;
+    for (let i = 0; i < 500; i++) {
+      s.channels.speed_rear![i] = 50;
+      s.channels.throttle![i] = 90;
+      const t = s.timeS[i];
+      f[i] = t >= 3 && t < 3.6 ? 50 - 5 * (t - 3) : 50;
+    }
+    const slip = driveSlip(s, { zeroRatio: 1 });
+    const opts = { targetSlip: 0.03, minDurationS: 0.1 };
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, opts).length).toBeGreaterThan(0);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, { ...opts, frontSpeedMs: f, wheelieDecelMs2: 3 })).toHaveLength(0);
   });
 });
 

@@ -55,6 +55,7 @@ export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title"
     pitPass: Boolean(l.pitPass),
     complete: jsonColumn<{ complete?: boolean }>(l.stats)?.complete ?? (!l.isOutLap && !l.isInLap),
     invalid: Boolean(l.isInvalid),
+    ...(jsonColumn<{ suspect?: boolean }>(l.stats)?.suspect ? { suspect: true } : {}),
   }));
   const bike: BikeInfo | null = bikeRow
     ? {

@@ -219,6 +219,8 @@ export async function parseCsvStream(
   let firstTimeCell = "";
   let pendingShort: { line: number; found: number } | undefined;
   let missingMarkers = 0;
+  const keepFirstOfDuplicates = mapping.duplicateTimes === "keepFirst";
+  let duplicateRows = 0;
   const isOther = channels.map((c) => c.role === "other");
   const textCells = new Array<number>(channels.length).fill(0);
   const textExample = new Array<string>(channels.length).fill("");
@@ -320,10 +322,16 @@ export async function parseCsvStream(
         firstTimeCell = tCell.trim();
       } else if (!(t > prevRaw)) {
         if (t === prevRaw) {
-          throw new IngestError("DUPLICATE_TIME", `Line ${line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(tCell.trim())} repeats the one on line ${prevLine}; time stamps must be unique.`, {
-            line,
-            column: timeHeader,
-          });
+          if (keepFirstOfDuplicates) {
+            duplicateRows++;
+            continue;
+          }
+          throw new IngestError(
+            "DUPLICATE_TIME",
+            `Line ${line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(tCell.trim())} repeats the one on line ${prevLine}; time stamps must be unique. ` +
+              "If the export rounded the times, import it keeping the first row of each time stamp.",
+            { line, column: timeHeader },
+          );
         }
         throw new IngestError(
           "TIME_BACKWARDS",
@@ -468,6 +476,7 @@ export async function parseCsvStream(
   for (let k = 0; k < nch; k++) {
     if (textCells[k]) notes.push(`Column ${quoteForMessage(channels[k].header)} (other): ${textCells[k].toLocaleString("en-GB")} cells of text (e.g. ${quoteForMessage(textExample[k])}) left out.`);
   }
+  if (duplicateRows) notes.push(`${duplicateRows.toLocaleString("en-GB")} rows repeating the time stamp of the row before were dropped (the first row of each time stamp kept).`);
   if (missingMarkers) notes.push(`${missingMarkers.toLocaleString("en-GB")} cells written NA were read as empty (no sample).`);
   const runs = separateRuns(joinedTime);
   if (runs.count > 1) {

@@ -28,6 +28,8 @@ export interface SessionOverview {
   session: SessionDetail & { conditions: string | null; createdAt: string };
   eventName: string | null;
   trackName: string | null;
+  /** The track's IANA time zone: the start is shown in its local time with UTC beside it. */
+  trackTimeZone: string | null;
   bikeName: string | null;
   engineSerial: string | null;
   riderName: string | null;
@@ -58,6 +60,7 @@ export async function getSessionOverview(ctx: TeamContext, sessionId: number): P
     session: { ...s, conditions: row?.conditions ?? null, createdAt: (row?.createdAt ?? new Date()).toISOString() },
     eventName: event?.name ?? null,
     trackName: track?.name ?? null,
+    trackTimeZone: track?.timeZone ?? null,
     bikeName: bike?.name ?? null,
     engineSerial: engine?.serial ?? null,
     riderName: rider?.name ?? null,

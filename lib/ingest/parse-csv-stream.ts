@@ -468,7 +468,11 @@ export async function parseCsvStream(
   }
   values = [];
   const metadata: Record<string, string> = { ...header.metadata, source_format: "csv", time_format: timeFormat, first_time_value: firstTimeCell };
-  if (timeFormat === "iso8601") metadata.start_time_iso = new Date(t0).toISOString();
+  if (timeFormat === "iso8601") {
+    metadata.start_time_iso = new Date(t0).toISOString();
+    // A zone-less date-time is wall-clock time: the track's zone decides the instant at ingest.
+    if (!/(Z|[+-]\d{2}:?\d{2})$/.test(firstTimeCell)) metadata.time_zone_in_file = "no";
+  }
   const notes: string[] = [];
   if (textColumns.length) {
     notes.push(`${textColumns.length === 1 ? "1 column holds" : `${textColumns.length} columns hold`} text, not numbers, and ${textColumns.length === 1 ? "was" : "were"} left out: ${textColumns.map((c) => `${quoteForMessage(c.name)} (e.g. ${quoteForMessage(c.example)})`).join(", ")}.`);

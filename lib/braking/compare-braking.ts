@@ -18,9 +18,6 @@ export interface BrakingDifference {
  * Braking differences of a lap against the reference lap, corner by corner (matched by name).
  * Braking 12 m before the reference's onset is +12 ("12 m earlier"); after it is −12
  * ("12 m later"). Differences under `sameWithinM` read as "about the same point".
- * Each lap's braking is anchored on its own apex of that corner (onset-to-apex distances are
- * compared), so a lap measured 0.3 % longer — another line, GPS rescaling — does not move a
- * braking point late in the lap by metres: only the braking zone's own length counts.
  */
 export function compareBraking(
   lapPoints: readonly BrakingPoint[],
@@ -34,9 +31,8 @@ export function compareBraking(
   for (const p of lapPoints) {
     const r = refByName.get(p.name);
     if (!r) continue;
-    const onset = p.onsetToApexM !== null && r.onsetToApexM !== null ? p.onsetToApexM - r.onsetToApexM : null;
-    const release =
-      p.releaseDistanceM !== null && r.releaseDistanceM !== null ? p.apexDistanceM - p.releaseDistanceM - (r.apexDistanceM - r.releaseDistanceM) : null;
+    const onset = p.onsetDistanceM !== null && r.onsetDistanceM !== null ? r.onsetDistanceM - p.onsetDistanceM : null;
+    const release = p.releaseDistanceM !== null && r.releaseDistanceM !== null ? r.releaseDistanceM - p.releaseDistanceM : null;
     const peak = p.peakPressurePa !== null && r.peakPressurePa !== null ? p.peakPressurePa - r.peakPressurePa : null;
     let text: string;
     if (onset === null) {

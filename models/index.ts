@@ -32,7 +32,9 @@ export class Bike extends Model<InferAttributes<Bike>, InferCreationAttributes<B
   declare revCeilingRpm: number | null;
   declare forkStrokeMm: number | null;
   declare shockStrokeMm: number | null;
+  /** Rear tyre crown radius (mm). */
   declare tyreCrownRadiusMm: number | null;
+  declare tyreCrownRadiusFrontMm: CreationOptional<number | null>;
   declare calibrations: Record<string, unknown> | null;
   declare thresholds: Record<string, number> | null;
   declare createdAt: CreationOptional<Date>;
@@ -83,6 +85,8 @@ export class Track extends Model<InferAttributes<Track>, InferCreationAttributes
   declare corners: TrackCorner[] | null;
   declare outline: [number, number][] | null;
   declare pitSpeedLimitKmh: number | null;
+  /** IANA time zone (e.g. "Europe/Madrid"): start times written without a zone are read in it. */
+  declare timeZone: CreationOptional<string | null>;
   declare thresholds: Record<string, number> | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -272,7 +276,7 @@ export function initModels(sequelize: Sequelize = getSequelize()): Sequelize {
     {
       id: defs.id, teamId: defs.teamId, name: DataTypes.STRING(120), className: DataTypes.STRING(80), wheelCircFrontMm: defs.dbl, wheelCircRearMm: defs.dbl,
       primaryRatio: defs.dbl, gearboxRatios: defs.json, sprocketFront: defs.intN, sprocketRear: defs.intN, revCeilingRpm: defs.dbl, forkStrokeMm: defs.dbl,
-      shockStrokeMm: defs.dbl, tyreCrownRadiusMm: defs.dbl, calibrations: defs.json, thresholds: defs.json, ...defs.ts,
+      shockStrokeMm: defs.dbl, tyreCrownRadiusMm: defs.dbl, tyreCrownRadiusFrontMm: defs.dbl, calibrations: defs.json, thresholds: defs.json, ...defs.ts,
     },
     opts("bikes"),
   );
@@ -287,7 +291,7 @@ export function initModels(sequelize: Sequelize = getSequelize()): Sequelize {
   Track.init(
     {
       id: defs.id, teamId: defs.teamId, name: DataTypes.STRING(120), centerLat: defs.dbl, centerLon: defs.dbl, lengthM: defs.dbl, gates: defs.json, corners: defs.json,
-      outline: defs.json, pitSpeedLimitKmh: defs.dbl, thresholds: defs.json, ...defs.ts,
+      outline: defs.json, pitSpeedLimitKmh: defs.dbl, timeZone: { type: DataTypes.STRING(64), allowNull: true }, thresholds: defs.json, ...defs.ts,
     },
     opts("tracks"),
   );

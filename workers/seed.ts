@@ -141,7 +141,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
   ] as const) {
     const [bike, created] = await findOrCreate(
       () => Bike.findOne({ where: { teamId, name } }),
-      () => Bike.create({ teamId, name, ...setup, tyreCrownRadiusMm: 95, calibrations: null, thresholds: null }),
+      () => Bike.create({ teamId, name, ...setup, tyreCrownRadiusMm: 95, tyreCrownRadiusFrontMm: 80, calibrations: null, thresholds: null }),
     );
     // Bikes made by the earlier seed (primary 1.667, 16/41) get the generator's setup; a bike the
     // team has edited since is left alone.

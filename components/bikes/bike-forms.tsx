@@ -34,7 +34,8 @@ export function BikeSettingsForm({ bike, editable }: { bike: BikeDetail; editabl
         <div className="grid gap-4 sm:grid-cols-3">
           <Field state={state} idPrefix={p} align name="wheelCircFrontMm" label="Front rolling circumference" unit="mm" inputMode="decimal" defaultValue={bike.wheelCircFrontMm} readOnly={ro} />
           <Field state={state} idPrefix={p} align name="wheelCircRearMm" label="Rear rolling circumference" unit="mm" inputMode="decimal" defaultValue={bike.wheelCircRearMm} readOnly={ro} />
-          <Field state={state} idPrefix={p} align name="tyreCrownRadiusMm" label="Tyre crown radius" unit="mm" inputMode="decimal" defaultValue={bike.tyreCrownRadiusMm} readOnly={ro} hint="Corrects the rolling radius at lean in Drive slip." />
+          <Field state={state} idPrefix={p} align name="tyreCrownRadiusFrontMm" label="Front tyre crown radius" unit="mm" inputMode="decimal" defaultValue={bike.tyreCrownRadiusFrontMm} readOnly={ro} hint="With the rear's, corrects both rolling radii at lean in Drive slip." />
+          <Field state={state} idPrefix={p} align name="tyreCrownRadiusMm" label="Rear tyre crown radius" unit="mm" inputMode="decimal" defaultValue={bike.tyreCrownRadiusMm} readOnly={ro} />
         </div>
         {editable && <TyreCalculator />}
       </fieldset>

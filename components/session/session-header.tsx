@@ -1,4 +1,5 @@
 import type { SessionOverview } from "@/lib/data/session-overview";
+import { formatInZone, isTimeZone } from "@/lib/ingest/zoned-time";
 
 export function formatUtc(iso: string | null): string | null {
   return iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : null;
@@ -23,7 +24,7 @@ export function SessionHeader({ o }: { o: SessionOverview }) {
     ["Rider", o.riderName],
     ["Bike", o.bikeName],
     ["Engine", o.engineSerial],
-    ["Date", formatUtc(s.startedAt)],
+    ["Date", o.trackTimeZone && s.startedAt && isTimeZone(o.trackTimeZone) ? `${formatInZone(s.startedAt, o.trackTimeZone)} local (${formatUtc(s.startedAt)})` : formatUtc(s.startedAt)],
     ["Duration", formatDuration(s.durationS)],
     ["Conditions", s.conditions],
   ];

@@ -35,6 +35,7 @@ function Flags({ lap }: { lap: LapRow }) {
   if (lap.inLap) flags.push({ text: "in-lap", cls: "border-ink-600 text-ink-300" });
   if (lap.pitPass) flags.push({ text: "pit", cls: "border-trace-500/60 text-trace-400" });
   if (lap.invalid) flags.push({ text: "invalid", cls: "border-alert-500/60 text-alert-400" });
+  if (lap.suspect) flags.push({ text: "suspect: missed crossing?", cls: "border-alert-500/60 text-alert-400" });
   if (!lap.complete && !lap.outLap && !lap.inLap) flags.push({ text: "partial", cls: "border-ink-600 text-ink-300" });
   return (
     <span className="flex flex-wrap gap-1">

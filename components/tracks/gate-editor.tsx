@@ -32,6 +32,7 @@ export function GateEditor({ data, editable }: { data: TrackEditorData; editable
   const [corners, setCorners] = useState<TrackCorner[]>(() => data.corners.map((c) => ({ ...c, distanceM: Math.round(c.distanceM) })));
   const [name, setName] = useState(data.name);
   const [pitLimit, setPitLimit] = useState(data.pitSpeedLimitKmh == null ? "" : String(data.pitSpeedLimitKmh));
+  const [timeZone, setTimeZone] = useState(data.timeZone ?? "");
   const [keepOutline, setKeepOutline] = useState(data.outlineSource === "session");
   const [sel, setSel] = useState<Selection>(editable && data.gates.sectors.length ? { kind: "sector", index: 0 } : null);
   const [tool, setTool] = useState<Tool>(data.gates.startFinish ? "move" : "startFinish");
@@ -190,13 +191,14 @@ export function GateEditor({ data, editable }: { data: TrackEditorData; editable
     name,
     gates,
     corners,
+    timeZone: timeZone.trim() === "" ? null : timeZone.trim(),
     pitSpeedLimitKmh: pitLimit.trim() === "" ? null : Number.isFinite(Number(pitLimit.replace(",", "."))) ? Number(pitLimit.replace(",", ".")) : pitLimit,
     outlineSessionId: keepOutline && data.outlineSource === "session" ? data.sessionId : null,
   });
 
   const isSel = (t: Exclude<Selection, null>) => sel?.kind === t.kind && (!("index" in t) || (sel && "index" in sel && sel.index === t.index));
   const err = (k: string) => state.errors?.[k];
-  const shown = new Set(["name", "pitSpeedLimitKmh", "gates.startFinish", "gates.pitEntry", "gates.pitExit", ...gates.sectors.map((_, i) => `gates.sectors.${i}`), ...corners.flatMap((_, i) => [`corners.${i}.name`, `corners.${i}.distanceM`])]);
+  const shown = new Set(["name", "pitSpeedLimitKmh", "timeZone", "gates.startFinish", "gates.pitEntry", "gates.pitExit", ...gates.sectors.map((_, i) => `gates.sectors.${i}`), ...corners.flatMap((_, i) => [`corners.${i}.name`, `corners.${i}.distanceM`])]);
   const otherErrors = Object.entries(state.errors ?? {}).filter(([k]) => !shown.has(k));
   const vb = geo.box;
   const strokeM = Math.max(vb.w, vb.h) / 260;
@@ -308,6 +310,11 @@ export function GateEditor({ data, editable }: { data: TrackEditorData; editable
               <label className="label" htmlFor="pit-limit">Pit-lane limit <span className="normal-case tracking-normal text-ink-400">(km/h)</span></label>
               <input id="pit-limit" className="field num" inputMode="decimal" value={pitLimit} readOnly={!editable} disabled={!editable} onChange={(e) => { setPitLimit(e.target.value); setDirty(true); }} placeholder="none" />
               {err("pitSpeedLimitKmh") && <p className="mt-1 text-xs text-alert-400">{err("pitSpeedLimitKmh")}</p>}
+            </div>
+            <div>
+              <label className="label" htmlFor="track-zone">Time zone <span className="normal-case tracking-normal text-ink-400">(IANA, e.g. Europe/Madrid)</span></label>
+              <input id="track-zone" className="field" value={timeZone} readOnly={!editable} disabled={!editable} onChange={(e) => { setTimeZone(e.target.value); setDirty(true); }} placeholder="UTC" />
+              {err("timeZone") && <p className="mt-1 text-xs text-alert-400">{err("timeZone")}</p>}
             </div>
           </div>
 

@@ -7,7 +7,7 @@ import { createEngine, updateEngine } from "@/lib/data/engines";
 import { parseId } from "@/lib/data/setup-access";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
 
-const BIKE_FIELDS = ["name", "className", "wheelCircFrontMm", "wheelCircRearMm", "primaryRatio", "gearboxRatios", "sprocketFront", "sprocketRear", "revCeilingRpm", "forkStrokeMm", "shockStrokeMm", "tyreCrownRadiusMm"] as const;
+const BIKE_FIELDS = ["name", "className", "wheelCircFrontMm", "wheelCircRearMm", "primaryRatio", "gearboxRatios", "sprocketFront", "sprocketRear", "revCeilingRpm", "forkStrokeMm", "shockStrokeMm", "tyreCrownRadiusMm", "tyreCrownRadiusFrontMm"] as const;
 const ENGINE_FIELDS = ["serial", "bikeId", "rebuildIntervalH", "rebuildIntervalKm", "hoursAtInstall", "kmAtInstall", "notes"] as const;
 
 function pick(values: Record<string, string>, keys: readonly string[]): Record<string, string> {

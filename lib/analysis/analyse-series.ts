@@ -2,12 +2,17 @@ import { detectLaps } from "@/lib/laps/detect-laps";
 import { detectLapsFromBeacon } from "@/lib/laps/detect-laps-from-beacon";
 import { distanceChannel } from "@/lib/laps/distance-channel";
 import { lapStats } from "@/lib/laps/lap-stats";
+import { markSuspectLaps } from "@/lib/laps/mark-suspect-laps";
 import { bestSectorLap, type BestSectorLap } from "@/lib/laps/best-sector-lap";
 import { extractFixes } from "@/lib/laps/extract-fixes";
+import { lowerBound } from "@/lib/laps/lower-bound";
+import { haversineM } from "@/lib/findings/haversine-m";
+import type { Gate } from "@/lib/geo/types";
 import { findGateCrossings } from "@/lib/laps/find-gate-crossings";
 import { isFlyingLap, type Lap, type SeriesLike, type TrackGates } from "@/lib/laps/types";
 import { runFindings } from "@/lib/findings/run-findings";
-import { DEFAULT_THRESHOLDS, type ThresholdKey } from "@/lib/findings/thresholds";
+import { collapseFindings } from "@/lib/findings/collapse-findings";
+import { DEFAULT_THRESHOLDS, NO_REV_CEILING_NOTE, type ThresholdKey } from "@/lib/findings/thresholds";
 import type { Finding, FindingKind } from "@/lib/findings/types";
 import { engineUsage, type EngineUsage } from "@/lib/engine/engine-usage";
 
@@ -51,7 +56,8 @@ export interface SessionEngineSummary {
   distanceM: number;
   rpmThreshold: number;
   timeAboveRpmS: number;
-  ceilingRpm: number;
+  /** The bike's rev ceiling; null when none is set (then nothing is checked against one). */
+  ceilingRpm: number | null;
   ceilingExceedances: number;
   timeAboveCeilingS: number;
   maxRpm: number | null;
@@ -73,6 +79,8 @@ export interface SessionAnalysisSummary {
   distanceM: number | null;
   findingCounts: Partial<Record<FindingKind, number>>;
   engine: SessionEngineSummary | null;
+  /** What the analysis could not check or fell back on, one sentence each (shown on the session page). */
+  analysisNotes?: string[];
   /** Laps and findings, ms. */
   analysisMs: number;
   /**
@@ -134,7 +142,38 @@ export function pitLaneTimes(series: SeriesLike, gates: TrackGates | null): { st
     seenAny = true;
   }
   if (openedAt !== null) out.push({ startTimeS: openedAt, endTimeS: series.timeS[series.timeS.length - 1] });
-  return out;
+  return boundPitIntervals(out, fixes, gates.pitExit);
+}
+
+/**
+ * A missed pit-exit crossing (a GPS gap at the gate) must not keep the bike "in the pit lane" for
+ * a lap at racing speed. After the pit entry, once the bike has come within 50 m (plus half the
+ * gate's width) of the exit gate's middle and then moves away again without a crossing, it left
+ * the pit lane there: the interval ends at its closest approach (Lapbench default). A stop in the
+ * garage never comes near the exit gate and keeps its whole interval.
+ */
+function boundPitIntervals(
+  intervals: { startTimeS: number; endTimeS: number }[],
+  fixes: { timeS: Float64Array; latDeg: Float64Array; lonDeg: Float64Array },
+  exit: Gate,
+): { startTimeS: number; endTimeS: number }[] {
+  const mx = 0.5 * (exit.a.lat + exit.b.lat);
+  const my = 0.5 * (exit.a.lon + exit.b.lon);
+  const nearM = 50 + 0.5 * haversineM(exit.a.lat, exit.a.lon, exit.b.lat, exit.b.lon);
+  const n = fixes.timeS.length;
+  return intervals.map((iv) => {
+    let best = Infinity;
+    let bestT = NaN;
+    for (let k = lowerBound(fixes.timeS, iv.startTimeS); k < n && fixes.timeS[k] < iv.endTimeS; k++) {
+      const d = haversineM(fixes.latDeg[k], fixes.lonDeg[k], mx, my);
+      if (d < nearM) {
+        if (d < best) (best = d), (bestT = fixes.timeS[k]);
+      } else if (Number.isFinite(best)) {
+        return { startTimeS: iv.startTimeS, endTimeS: bestT };
+      }
+    }
+    return iv;
+  });
 }
 
 /** Nearest sample with a GPS position to sample i (looks forward first: fixes trail the event less). */
@@ -183,6 +222,9 @@ export function analyseSeries(
     if (laps.length) lapSource = "beacon";
   }
 
+  // A lap much longer than the rest is likely two merged by a missed crossing: kept out of the bests.
+  const suspectLaps = markSuspectLaps(laps);
+
   // A person's "invalid" mark survives a re-analysis and keeps the lap out of the bests.
   if (options.isInvalid) for (const lap of laps) if (options.isInvalid(lap)) lap.invalid = true;
 
@@ -205,7 +247,7 @@ export function analyseSeries(
 
   const thresholds = mergeThresholds(bike?.thresholds, track?.thresholds);
   const pitTimes = pitLaneTimes(series, gates);
-  const findings = runFindings(series, {
+  const events = runFindings(series, {
     laps,
     track: {
       pitSpeedLimitMs: finiteOrNull(track?.pitSpeedLimitMs) ?? undefined,
@@ -218,6 +260,8 @@ export function analyseSeries(
     },
     thresholds,
   });
+  // Repeats of one kind on one channel become one finding naming the laps, the count and the worst.
+  const findings = collapseFindings(events);
   const lapIndex = new Map(laps.map((l, k) => [l.number, k]));
   const analysedFindings: AnalysedFinding[] = findings.map((f) => {
     const k = f.lapNumber == null ? undefined : lapIndex.get(f.lapNumber);
@@ -239,12 +283,14 @@ export function analyseSeries(
     if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]) && (topSpeedMs === null || v[i] > topSpeedMs)) topSpeedMs = v[i];
   }
   const counts: Partial<Record<FindingKind, number>> = {};
-  for (const f of findings) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
+  for (const f of events) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
 
   let engine: SessionEngineSummary | null = null;
   if (hasFinite(series.channels.engine_rpm)) {
-    const ceilingRpm = finiteOrNull(bike?.revCeilingRpm) ?? thresholds.revCeilingRpm ?? DEFAULT_THRESHOLDS.revCeilingRpm.value;
-    const u: EngineUsage = engineUsage(series, ENGINE_LEDGER_RPM_SHARE * ceilingRpm, ceilingRpm);
+    // No ceiling is assumed for a bike without one (NO_REV_CEILING_NOTE); time above is then
+    // counted at 12 000 rpm, as the Engine ledger does (lib/data/engines.ts defaultLedgerRpm).
+    const ceilingRpm = finiteOrNull(bike?.revCeilingRpm);
+    const u: EngineUsage = engineUsage(series, ceilingRpm ? ENGINE_LEDGER_RPM_SHARE * ceilingRpm : 12_000, ceilingRpm ?? Infinity);
     engine = {
       runningS: u.runningS,
       hours: u.runningS / 3600,
@@ -257,6 +303,17 @@ export function analyseSeries(
       maxRpm: finiteOrNull(u.maxRpm),
     };
   }
+  const analysisNotes: string[] = [];
+  for (const l of suspectLaps) {
+    analysisNotes.push(`Lap ${l.number} (${(l.lapTimeMs / 1000).toFixed(1)} s) is over 1.5 × the session's median lap: a missed line crossing (GPS gap) may have merged two laps. It is left out of the best lap and best sectors.`);
+  }
+  if (dist.source === "gps" && series.channels.speed_front) analysisNotes.push("The front wheel speed reads nothing while the bike moves: distance comes from GPS instead.");
+  dist.lapScaleRejected.forEach((r, k) => {
+    if (Number.isFinite(r)) {
+      analysisNotes.push(`Lap ${laps[k].number}: the GPS path is ${((r - 1) * 100).toFixed(1)} % off the wheel distance, beyond ±5 %; the wheel distance is kept (a GPS gap or a wrong wheel circumference).`);
+    }
+  });
+  if (engine && engine.ceilingRpm === null) analysisNotes.push(NO_REV_CEILING_NOTE);
   const n = series.timeS.length;
   return {
     laps: analysedLaps,
@@ -271,6 +328,7 @@ export function analyseSeries(
       distanceM: hasDistance && n ? dist.distanceM[n - 1] : null,
       findingCounts: counts,
       engine,
+      analysisNotes,
     },
   };
 }

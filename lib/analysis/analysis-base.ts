@@ -13,6 +13,7 @@ import { detectLaps } from "@/lib/laps/detect-laps";
 import { distanceChannel, type DistanceChannel } from "@/lib/laps/distance-channel";
 import { lowerBound } from "@/lib/laps/lower-bound";
 import { findCorners } from "@/lib/braking/find-corners";
+import { checkWheelSensor } from "@/lib/laps/live-wheel-speed";
 
 export interface LapInfo {
   number: number;
@@ -27,13 +28,16 @@ export interface BikeInfo {
   id: number;
   name: string;
   wheelCircRearMm: number | null;
+  wheelCircFrontMm?: number | null;
   primaryRatio: number | null;
   gearboxRatios: number[] | null;
   sprocketFront: number | null;
   sprocketRear: number | null;
   forkStrokeMm: number | null;
   shockStrokeMm: number | null;
+  /** Rear tyre crown radius. */
   tyreCrownRadiusMm: number | null;
+  tyreCrownRadiusFrontMm?: number | null;
   thresholds: Record<string, number>;
 }
 
@@ -109,8 +113,11 @@ export function lapDistance(base: Pick<AnalysisBase, "dist">, lapIdx: number, fr
   return out;
 }
 
+/** Ground speed for the pages: front wheel, GPS, rear wheel — skipping a wheel sensor that reads nothing while the bike moves. */
 export function groundSpeed(series: SeriesLike) {
-  return series.channels.speed_front ?? series.channels.gps_speed ?? series.channels.speed_rear;
+  const c = series.channels;
+  if (c.speed_front && !checkWheelSensor(series, "speed_front")?.dead) return c.speed_front;
+  return c.gps_speed ?? (c.speed_rear && !checkWheelSensor(series, "speed_rear")?.dead ? c.speed_rear : undefined);
 }
 
 /** The best flying lap (shortest time; the first of equals). */

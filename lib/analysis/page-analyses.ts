@@ -66,8 +66,8 @@ export interface SlipAnalysis {
   reason?: string;
   targetSlip: number;
   targetSource: "bike" | "track" | "default";
-  zero: { ratio: number; applied: boolean; sampleCount: number };
-  lean: { possible: boolean; applied: boolean; crownRadiusMm: number | null };
+  zero: { ratio: number; applied: boolean; sampleCount: number; reason?: string | null };
+  lean: { possible: boolean; applied: boolean; crownRadiusMm: number | null; frontCrownRadiusMm: number | null };
   laps: LapInfo[];
   lap: number | null;
   /** Selected lap on a 2 m grid: distance (m), slip (fraction), throttle (%). */
@@ -85,14 +85,17 @@ function slipCore(base: AnalysisBase, leanAsked: boolean): { result: SlipAnalysi
   const target = thresholdOf(base, "wheelSpinTargetSlip");
   const minThrottle = thresholdOf(base, "wheelSpinMinThrottlePct").value;
   const crown = base.bike?.tyreCrownRadiusMm ?? null;
+  const frontCrown = base.bike?.tyreCrownRadiusFrontMm ?? null;
   const rearCirc = base.bike?.wheelCircRearMm ?? null;
-  const leanPossible = !!(series.channels.lean_angle && crown && rearCirc);
+  const frontCirc = base.bike?.wheelCircFrontMm ?? null;
+  // Both tyres or neither: correcting one wheel only biases the slip at lean.
+  const leanPossible = !!(series.channels.lean_angle && crown && rearCirc && frontCrown && frontCirc);
   const empty: SlipAnalysis = {
     available: false,
     targetSlip: target.value,
     targetSource: target.source,
     zero: { ratio: 1, applied: false, sampleCount: 0 },
-    lean: { possible: leanPossible, applied: false, crownRadiusMm: crown },
+    lean: { possible: leanPossible, applied: false, crownRadiusMm: crown, frontCrownRadiusMm: frontCrown },
     laps: base.lapInfo,
     lap: null,
     trace: null,
@@ -109,10 +112,19 @@ function slipCore(base: AnalysisBase, leanAsked: boolean): { result: SlipAnalysi
   const leanApplied = leanAsked && leanPossible;
   const slip = driveSlip(series, {
     zeroRatio: zero.ratio,
-    lean: leanApplied ? { rearRadiusM: rearCirc! / 1000 / (2 * Math.PI), rearCrownRadiusM: crown! / 1000 } : undefined,
+    lean: leanApplied
+      ? { rearRadiusM: rearCirc! / 1000 / (2 * Math.PI), rearCrownRadiusM: crown! / 1000, frontRadiusM: frontCirc! / 1000 / (2 * Math.PI), frontCrownRadiusM: frontCrown! / 1000 }
+      : undefined,
   });
   const throttle = series.channels.throttle;
-  const spins: SpinRow[] = spinEvents(slip, throttle, series.timeS, { targetSlip: target.value, minThrottlePct: minThrottle }).map((e) => {
+  // The same spin rule as the wheel-spin finding: target, throttle, minimum duration, wheelie guard.
+  const spins: SpinRow[] = spinEvents(slip, throttle, series.timeS, {
+    targetSlip: target.value,
+    minThrottlePct: minThrottle,
+    minDurationS: thresholdOf(base, "wheelSpinMinDurationS").value,
+    frontSpeedMs: series.channels.speed_front,
+    wheelieDecelMs2: thresholdOf(base, "wheelieDecelMs2").value,
+  }).map((e) => {
     const k = lapAt(base, e.startTimeS);
     const d = k >= 0 ? base.dist.distanceM[e.startIndex] - base.dist.lapStartDistanceM[k] : NaN;
     return { lap: k >= 0 ? base.laps[k].number : null, corner: k >= 0 ? cornerAt(base.corners, d) : null, startTimeS: e.startTimeS, durationS: e.durationS, peakSlip: e.peakSlip, distanceM: Number.isFinite(d) ? d : null };
@@ -129,8 +141,8 @@ function slipCore(base: AnalysisBase, leanAsked: boolean): { result: SlipAnalysi
     result: {
       ...empty,
       available: true,
-      zero: { ratio: zero.ratio, applied: zero.applied, sampleCount: zero.sampleCount },
-      lean: { possible: leanPossible, applied: leanApplied, crownRadiusMm: crown },
+      zero: { ratio: zero.ratio, applied: zero.applied, sampleCount: zero.sampleCount, reason: zero.reason ?? null },
+      lean: { possible: leanPossible, applied: leanApplied, crownRadiusMm: crown, frontCrownRadiusMm: frontCrown },
       spins,
       exits,
       scatter: { throttlePct: Array.from(sc.throttlePct, (x) => Math.round(x * 10) / 10), slip: Array.from(sc.slip, (x) => Math.round(x * 1e4) / 1e4) },
@@ -304,8 +316,8 @@ export function computeGears(base: AnalysisBase): GearAnalysis {
 
 /* ──────────────────────────── Rider brief ───────────────────────────── */
 
-/** Front pressure that counts as the start of braking in the brief: 2 bar, as the findings' brake threshold (common practice). */
-export const BRIEF_BRAKE_THRESHOLD_PA = DEFAULT_THRESHOLDS.brakeOnStraightPressurePa.value;
+/** Default front pressure that counts as the start of braking in the brief: the shared brake-on threshold (2 bar, Lapbench default). */
+export const BRIEF_BRAKE_THRESHOLD_PA = DEFAULT_THRESHOLDS.brakeAppliedPa.value;
 
 export interface BriefCorner {
   name: string;
@@ -359,12 +371,13 @@ function briefCore(base: AnalysisBase): BriefCore {
   if (!v || !p) return { out: { ...out, reason: "The brief needs the front brake pressure and a speed channel; this session lacks one of them." }, braking: null };
   if (base.corners.length === 0) return { out: { ...out, reason: "No corners were found on the best lap." }, braking: null };
   const bestLap = base.bestLap;
+  const brakeOnPa = thresholdOf(base, "brakeAppliedPa").value;
 
   const lapPoints = (l: Lap) => {
     const k = base.laps.indexOf(l);
     const [from, to] = lapRange(series.timeS, l);
     const d = lapDistance(base, k, from, to);
-    return { from, d, points: brakingPoints({ distanceM: d, speedMs: v.subarray(from, to), brakeFrontPa: p.subarray(from, to) }, base.corners, { thresholdPa: BRIEF_BRAKE_THRESHOLD_PA }) };
+    return { from, d, points: brakingPoints({ distanceM: d, speedMs: v.subarray(from, to), brakeFrontPa: p.subarray(from, to) }, base.corners, { thresholdPa: brakeOnPa }) };
   };
   const ref = lapPoints(bestLap);
 

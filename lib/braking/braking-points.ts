@@ -1,3 +1,5 @@
+import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
+
 export interface BrakingLap {
   /** Distance from the lap's start (m), increasing. */
   distanceM: ArrayLike<number>;
@@ -13,8 +15,8 @@ export interface BrakingCorner {
 
 export interface BrakingPointsOptions {
   /**
-   * Front pressure that counts as braking (Pa). Default 5 bar — Lapbench's setting: above a
-   * resting lever and sensor offset, below the first bite of any real stop.
+   * Front pressure that counts as braking (Pa). Default DEFAULT_THRESHOLDS.brakeAppliedPa (2 bar,
+   * Lapbench default) — the one brake-on threshold the brief and the findings share.
    */
   thresholdPa?: number;
   /** This lap's apex is looked for within ± this of the reference apex (m). Default 60. */
@@ -53,7 +55,7 @@ function crossing(d: ArrayLike<number>, p: ArrayLike<number>, i0: number, i1: nu
  * threshold crossing.
  */
 export function brakingPoints(lap: BrakingLap, corners: readonly BrakingCorner[], opts: BrakingPointsOptions = {}): BrakingPoint[] {
-  const threshold = opts.thresholdPa ?? 5e5;
+  const threshold = opts.thresholdPa ?? DEFAULT_THRESHOLDS.brakeAppliedPa.value;
   const apexSearchM = opts.apexSearchM ?? 60;
   const mergeGapM = opts.mergeGapM ?? 20;
   const { distanceM: d, speedMs: v, brakeFrontPa: p } = lap;

@@ -56,6 +56,7 @@ export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title"
     pitPass: Boolean(l.pitPass),
     complete: jsonColumn<{ complete?: boolean }>(l.stats)?.complete ?? (!l.isOutLap && !l.isInLap),
     invalid: Boolean(l.isInvalid),
+    ...(jsonColumn<{ suspect?: boolean }>(l.stats)?.suspect ? { suspect: true } : {}),
   }));
   const bike: BikeInfo | null = bikeRow
     ? {
@@ -69,6 +70,8 @@ export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title"
         forkStrokeMm: bikeRow.forkStrokeMm,
         shockStrokeMm: bikeRow.shockStrokeMm,
         tyreCrownRadiusMm: bikeRow.tyreCrownRadiusMm,
+        tyreCrownRadiusFrontMm: bikeRow.tyreCrownRadiusFrontMm ?? null,
+        wheelCircFrontMm: bikeRow.wheelCircFrontMm,
         thresholds: jsonColumn<Record<string, number>>(bikeRow.thresholds) ?? {},
       }
     : null;

@@ -38,7 +38,8 @@ export const bikeSettingsSchema = z
     revCeilingRpm: optionalNumber("Rev ceiling", 3000, 25000, "rpm"),
     forkStrokeMm: optionalNumber("Fork stroke", 50, 200, "mm"),
     shockStrokeMm: optionalNumber("Shock stroke", 20, 150, "mm"),
-    tyreCrownRadiusMm: optionalNumber("Tyre crown radius", 20, 200, "mm"),
+    tyreCrownRadiusMm: optionalNumber("Rear tyre crown radius", 20, 200, "mm"),
+    tyreCrownRadiusFrontMm: optionalNumber("Front tyre crown radius", 20, 200, "mm"),
   });
 export type BikeSettingsInput = z.input<typeof bikeSettingsSchema>;
 
@@ -66,6 +67,7 @@ export interface BikeDetail {
   forkStrokeMm: number | null;
   shockStrokeMm: number | null;
   tyreCrownRadiusMm: number | null;
+  tyreCrownRadiusFrontMm: number | null;
 }
 
 function toDetail(b: Bike): BikeDetail {
@@ -83,6 +85,7 @@ function toDetail(b: Bike): BikeDetail {
     forkStrokeMm: b.forkStrokeMm,
     shockStrokeMm: b.shockStrokeMm,
     tyreCrownRadiusMm: b.tyreCrownRadiusMm,
+    tyreCrownRadiusFrontMm: b.tyreCrownRadiusFrontMm ?? null,
   };
 }
 
@@ -118,7 +121,7 @@ export async function createBike(ctx: TeamContext, raw: unknown): Promise<{ id: 
   initModels();
   const b = await Bike.create({
     teamId: ctx.teamId, name: input.name, className: input.className, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null,
-    sprocketFront: null, sprocketRear: null, revCeilingRpm: null, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null,
+    sprocketFront: null, sprocketRear: null, revCeilingRpm: null, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, tyreCrownRadiusFrontMm: null, calibrations: null, thresholds: null,
   });
   return { id: b.id };
 }

@@ -231,6 +231,7 @@ export async function prepareImport(sequelize: Sequelize, sessionId: number, opt
 
 export const mappingSchema = z.object({
   timeFormat: z.enum(["seconds", "milliseconds", "iso8601"]),
+  duplicateTimes: z.enum(["refuse", "keepFirst"]).optional(),
   columns: z
     .array(
       z.object({

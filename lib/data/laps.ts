@@ -24,6 +24,8 @@ export interface LapRow {
   pitPass: boolean;
   invalid: boolean;
   complete: boolean;
+  /** Much longer than the session's other laps: likely two merged by a missed crossing. */
+  suspect: boolean;
 }
 
 export interface VisibleSession {
@@ -61,7 +63,7 @@ const LAP_COLUMNS = `l.session_id AS sessionId, l.number AS number, l.start_time
   l.is_out_lap AS isOutLap, l.is_in_lap AS isInLap, l.is_invalid AS isInvalid, l.pit_pass AS pitPass, l.stats AS stats`;
 
 function toRow(l: LapDbRow): LapRow {
-  const stats = jsonColumn<{ complete?: boolean }>(l.stats);
+  const stats = jsonColumn<{ complete?: boolean; suspect?: boolean }>(l.stats);
   const outLap = Boolean(l.isOutLap);
   const inLap = Boolean(l.isInLap);
   return {
@@ -80,6 +82,7 @@ function toRow(l: LapDbRow): LapRow {
     // Laps are stored without a "complete" column: only the out-lap and the in-lap can be cut
     // off by the log's ends, unless the analysis says otherwise in stats.
     complete: stats?.complete ?? (!outLap && !inLap),
+    suspect: Boolean(stats?.suspect),
   };
 }
 
@@ -96,6 +99,7 @@ export function toLibLap(r: LapRow): Lap {
     pitPass: r.pitPass,
     complete: r.complete,
     invalid: r.invalid,
+    suspect: r.suspect,
   };
 }
 

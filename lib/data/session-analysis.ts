@@ -119,7 +119,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
         pitPass: l.pitPass,
         sectorTimesMs: l.sectorTimesMs as number[],
         topSpeedMs: l.topSpeedMs,
-        stats: { ...l.stats, complete: l.complete },
+        stats: { ...l.stats, complete: l.complete, ...(l.suspect ? { suspect: true } : {}) },
       })),
       { transaction: t },
     );

@@ -28,11 +28,15 @@ export interface SessionOverview {
   session: SessionDetail & { conditions: string | null; createdAt: string };
   eventName: string | null;
   trackName: string | null;
+  /** The track's IANA time zone: the start is shown in its local time with UTC beside it. */
+  trackTimeZone: string | null;
   bikeName: string | null;
   engineSerial: string | null;
   riderName: string | null;
   fileName: string | null;
   format: ImportPreview["format"] | null;
+  /** What the reader skipped or corrected in the file (e.g. "412 sentences skipped: …"). */
+  importNotes: string[];
   channels: ChannelRow[];
 }
 
@@ -56,11 +60,16 @@ export async function getSessionOverview(ctx: TeamContext, sessionId: number): P
     session: { ...s, conditions: row?.conditions ?? null, createdAt: (row?.createdAt ?? new Date()).toISOString() },
     eventName: event?.name ?? null,
     trackName: track?.name ?? null,
+    trackTimeZone: track?.timeZone ?? null,
     bikeName: bike?.name ?? null,
     engineSerial: engine?.serial ?? null,
     riderName: rider?.name ?? null,
     fileName: log?.name ?? null,
     format: preview?.format ?? null,
+    importNotes: [
+      ...(((row?.summary as { importNotes?: unknown } | null)?.importNotes as string[] | undefined) ?? []),
+      ...(((row?.summary as { analysisNotes?: unknown } | null)?.analysisNotes as string[] | undefined) ?? []),
+    ].filter((x) => typeof x === "string"),
     channels: channels.map((c) => {
       const d = displayUnitFor(c.role, c.unit);
       return {

@@ -4,6 +4,7 @@ import "server-only";
  * outline to draw on, save gates/corners/pit limit and re-run the analysis of the track's
  * sessions. Plain objects out; team and role checks inside.
  */
+import { isTimeZone } from "@/lib/ingest/zoned-time";
 import { Op, QueryTypes } from "sequelize";
 import { z } from "zod";
 import { initModels, RideSession, Track, type TrackGates, type TrackCorner } from "@/models";
@@ -65,6 +66,15 @@ export const trackSaveSchema = z
       .min(5, "Pit-lane speed limit must be at least 5 km/h")
       .max(150, "Pit-lane speed limit must be at most 150 km/h")
       .nullable(),
+    /** IANA time zone of the circuit ("Europe/Madrid"): start times written without a zone are read in it. */
+    timeZone: z
+      .string()
+      .trim()
+      .max(64)
+      .refine((z) => z === "" || isTimeZone(z), { message: "Time zone must be an IANA name such as Europe/Madrid" })
+      .transform((z) => (z === "" ? null : z))
+      .nullable()
+      .optional(),
     /** Take the outline from this session's GPS and keep it on the track. */
     outlineSessionId: z.number().int().positive().nullable().optional(),
   })
@@ -110,6 +120,7 @@ export interface TrackEditorData {
   gates: TrackGates;
   corners: TrackCorner[];
   pitSpeedLimitKmh: number | null;
+  timeZone: string | null;
   /** One lap, [lat, lon] in travel order; empty when nothing is recorded yet. */
   outline: [number, number][];
   outlineSource: "track" | "session" | "none";
@@ -223,6 +234,7 @@ export async function getTrackEditor(ctx: TeamContext, id: number, sessionId?: n
     gates: gatesOf(t),
     corners: jsonColumn<TrackCorner[]>(t.corners) ?? [],
     pitSpeedLimitKmh: t.pitSpeedLimitKmh,
+    timeZone: t.timeZone ?? null,
     outline,
     outlineSource,
     trace,
@@ -291,7 +303,7 @@ export async function saveTrack(ctx: TeamContext, id: number, raw: unknown): Pro
       });
   }
   const corners = [...input.corners].sort((a, b) => a.distanceM - b.distanceM);
-  await t.update({ name: input.name, gates: input.gates, corners, pitSpeedLimitKmh: input.pitSpeedLimitKmh, outline: outline ?? null, ...facts });
+  await t.update({ name: input.name, gates: input.gates, corners, pitSpeedLimitKmh: input.pitSpeedLimitKmh, ...(input.timeZone !== undefined ? { timeZone: input.timeZone } : {}), outline: outline ?? null, ...facts });
   const { sessionIds } = await reanalyseTrackSessions(getSequelize(), t.id);
   return { reanalysed: sessionIds.length };
 }

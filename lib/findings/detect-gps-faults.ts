@@ -1,5 +1,6 @@
 import type { DetectorContext } from "./detector-context";
 import { haversineM } from "./haversine-m";
+import { validFix } from "@/lib/laps/extract-fixes";
 import { kmh, makeFinding, onLap } from "./make-finding";
 import type { Finding } from "./types";
 
@@ -13,7 +14,7 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
   const lon = dc.series.channels.gps_lon;
   if (!lat || !lon) return [];
   const t = dc.series.timeS;
-  const wheel = dc.series.channels.speed_front ?? dc.series.channels.speed_rear;
+  const wheel = dc.liveWheelMs;
   const gpsSpeed = dc.series.channels.gps_speed;
   const { th } = dc;
   const out: Finding[] = [];
@@ -48,7 +49,7 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
   };
 
   for (let i = 0; i < t.length; i++) {
-    if (!Number.isFinite(lat[i]) || !Number.isFinite(lon[i])) continue;
+    if (!validFix(lat[i], lon[i])) continue;
     if (prev < 0) {
       prev = i;
       continue;

@@ -4,11 +4,15 @@ import { makeFinding, onLap } from "./make-finding";
 import { maskRuns } from "./mask-runs";
 import type { Finding } from "./types";
 
-/** Engine speed above the rev ceiling (the bike's own figure, else the threshold). */
+/**
+ * Engine speed above the bike's rev ceiling. No ceiling is assumed for a bike without one
+ * (NO_REV_CEILING_NOTE): a default would give a smaller engine false critical findings and leave
+ * a twin unchecked.
+ */
 export function detectRevCeiling(dc: DetectorContext): Finding[] {
   const rpm = dc.series.channels.engine_rpm;
-  if (!rpm) return [];
-  const ceiling = dc.ctx.bike?.revCeilingRpm ?? dc.th.revCeilingRpm;
+  const ceiling = dc.ctx.bike?.revCeilingRpm;
+  if (!rpm || ceiling === undefined || !Number.isFinite(ceiling)) return [];
   const runs = maskRuns(rpm.length, (i) => rpm[i] > ceiling, dc.series.timeS, { mergeGapS: 0.2, dtS: dc.dtS });
   return runs.map(({ start, end }) => {
     let peak = -Infinity;

@@ -43,9 +43,28 @@ export function detectSensorFlat(dc: DetectorContext): Finding[] {
   const n = t.length;
   const minSpeedMs = dc.th.sensorFlatMinSpeedMs;
   const out: Finding[] = [];
+  // A dead wheel sensor is one finding for the session, not a flat stretch per lap.
+  for (const d of dc.deadWheels) {
+    const w = dc.series.channels[d.role]!;
+    let first = 0;
+    while (first < n - 1 && !(v[first] > 10)) first++;
+    out.push(
+      makeFinding(dc, first, n - 1, {
+        kind: "sensor_flat",
+        severity: "warning",
+        measuredValue: d.deadShare * d.movingS,
+        thresholdValue: 0,
+        unit: "s",
+        channel: d.role,
+        message:
+          `${ROLE_LABEL[d.role]} reads ${Number.isFinite(w[first]) ? Number((w[first] * 3.6).toFixed(1)) : "nothing"} km/h for ${Math.round(d.deadShare * 100)} % of the ${d.movingS.toFixed(0)} s the ${d.referenceName} says the bike moved (up to ${(d.referenceMaxMs * 3.6).toFixed(0)} km/h): ` +
+          `the sensor or its wiring is likely dead. Distance and ground speed use the ${d.role === "speed_front" ? "GPS or the rear wheel" : "front wheel or GPS"} instead.`,
+      }),
+    );
+  }
   for (const [role, tol] of WATCHED) {
     const x = dc.series.channels[role];
-    if (!x) continue;
+    if (!x || dc.deadWheels.some((d) => d.role === role)) continue;
     const minS = role === "throttle" ? dc.th.throttleFlatMinDurationS : dc.th.sensorFlatMinDurationS;
     // The run's state lives in plain locals, not in a closure: captured variables are kept in a
     // heap context (a boxed number per write), which made this the slowest detector by far.

@@ -1,4 +1,5 @@
 import type { SeriesLike } from "@/lib/laps/types";
+import { checkWheelSensor, type WheelSensorCheck } from "@/lib/laps/live-wheel-speed";
 import { DEFAULT_THRESHOLDS, type ThresholdKey, type Thresholds } from "./thresholds";
 import type { FindingsContext, LapSpan } from "./types";
 
@@ -8,8 +9,12 @@ export interface DetectorContext {
   th: Thresholds;
   /** Median sample interval of the master clock (s). */
   dtS: number;
-  /** Ground speed per sample (m/s): front wheel, else rear wheel, else GPS speed held between fixes; undefined if none. */
+  /** Ground speed per sample (m/s): front wheel, else rear wheel, else GPS speed held between fixes — a dead wheel sensor skipped; undefined if none. */
   groundSpeedMs: ArrayLike<number> | undefined;
+  /** A wheel whose sensor reads (near) nothing while the bike moves; ground speed comes from elsewhere. */
+  deadWheels: WheelSensorCheck[];
+  /** The wheel-speed channel that works (front, else rear), for GPS-jump checks; undefined if none. */
+  liveWheelMs: ArrayLike<number> | undefined;
   lapOf: (timeS: number) => number | null;
 }
 
@@ -51,6 +56,10 @@ export function buildDetectorContext(series: SeriesLike, ctx: FindingsContext): 
     th[key] = ctx.thresholds?.[key] ?? DEFAULT_THRESHOLDS[key].value;
   }
   const c = series.channels;
-  const groundSpeedMs = c.speed_front ?? c.speed_rear ?? (c.gps_speed ? holdForward(c.gps_speed) : undefined);
-  return { series, ctx, th, dtS: medianStep(series.timeS), groundSpeedMs, lapOf: makeLapOf(ctx.laps) };
+  const front = checkWheelSensor(series, "speed_front");
+  const rear = checkWheelSensor(series, "speed_rear");
+  const deadWheels = [front, rear].filter((x): x is WheelSensorCheck => !!x?.dead);
+  const liveWheelMs = c.speed_front && !front?.dead ? c.speed_front : c.speed_rear && !rear?.dead ? c.speed_rear : undefined;
+  const groundSpeedMs = liveWheelMs ?? (c.gps_speed ? holdForward(c.gps_speed) : undefined);
+  return { series, ctx, th, dtS: medianStep(series.timeS), groundSpeedMs, deadWheels, liveWheelMs, lapOf: makeLapOf(ctx.laps) };
 }

@@ -17,13 +17,17 @@ const f = (key: ThresholdKey, label: string, unit: string, factor: number, min: 
 
 /** Properties of the bike, its sensors and its electronics. */
 export const BIKE_THRESHOLD_FIELDS: readonly ThresholdField[] = [
-  f("brakeOnStraightPressurePa", "Brake on straight: front pressure", "bar", 1e-5, 0.1, 50),
+  f("brakeAppliedPa", "Brake on: front pressure above", "bar", 1e-5, 0.1, 50),
+  f("brakeOnStraightPressurePa", "Brake on straight: front pressure (always found)", "bar", 1e-5, 0.1, 50),
+  f("brakeOnStraightRestMarginPa", "Brake on straight: above the resting pressure by", "bar", 1e-5, 0.05, 20),
   f("brakeOnStraightThrottlePct", "Brake on straight: throttle above", "%", 1, 1, 100),
+  f("brakeOnStraightMaxLeanDeg", "Brake on straight: lean below", "°", 1, 1, 60),
+  f("brakeOnStraightMinSpeedMs", "Brake on straight: speed above", "km/h", 3.6, 10, 300),
   f("brakeOnStraightMinDurationS", "Brake on straight: lasting at least", "s", 1, 0.01, 10),
-  f("revCeilingRpm", "Rev ceiling", "rpm", 1, 1000, 25000),
   f("wheelSpinTargetSlip", "Wheel spin: slip target", "%", 100, 1, 50),
   f("wheelSpinMinDurationS", "Wheel spin: lasting at least", "s", 1, 0.01, 10),
   f("wheelSpinMinThrottlePct", "Wheel spin: throttle at least", "%", 1, 0, 100),
+  f("wheelieDecelMs2", "Wheel spin: front slowing faster than this is a wheelie", "m/s²", 1, 0.5, 20),
   f("bottomingMarginM", "Bottoming: within this of full stroke", "mm", 1000, 0, 30),
   f("bottomingDebounceS", "Bottoming: one event within", "s", 1, 0, 5),
   f("sensorFlatMinSpeedMs", "Sensor flat: judged above", "km/h", 3.6, 10, 300),

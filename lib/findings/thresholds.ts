@@ -8,22 +8,53 @@ export interface ThresholdDefault {
 }
 
 /**
+ * No rev ceiling is assumed: an engine's ceiling depends on its class and build (a 1000 cc
+ * four-cylinder superbike around 14,000–14,300 rpm, common practice; a twin or a smaller engine far
+ * lower). A bike without its own ceiling gets no rev-ceiling finding, and the session says so.
+ */
+export const NO_REV_CEILING_NOTE = "No rev ceiling is set for this bike, so engine speed was not checked against one. Set it on the bike.";
+
+/**
  * Default thresholds of the findings engine, each with its reason and where it comes from.
  * Every one is a setting per bike and track; the Settings screen shows these as the defaults.
  * Values are SI (Pa, m/s, m, s); the rationale gives the everyday unit.
  */
 export const DEFAULT_THRESHOLDS = {
+  brakeAppliedPa: {
+    value: 2e5,
+    unit: "Pa",
+    rationale: "Front pressure above 2 bar counts as the brake on: where braking points and the rider brief say braking starts.",
+    source: "Lapbench default",
+  },
   brakeOnStraightPressurePa: {
     value: 2e5,
     unit: "Pa",
-    rationale: "2 bar front pressure is above a resting lever and sensor offset yet far below any real stop; a lever pushed by air at speed can reach it.",
-    source: "common practice",
+    rationale: "2 bar front pressure with the throttle open is always found, whatever the sensor's resting level; a lever pushed by air at speed can reach it.",
+    source: "Lapbench default",
+  },
+  brakeOnStraightRestMarginPa: {
+    value: 0.5e5,
+    unit: "Pa",
+    rationale: "Also found: 0.5 bar (or 5 × its spread, whichever is more) above the pressure the sensor rests at with the throttle wide open in this session.",
+    source: "Lapbench default",
   },
   brakeOnStraightThrottlePct: {
     value: 50,
     unit: "%",
     rationale: "Above half throttle the rider is driving, not braking; pressure then is not meant.",
-    source: "common practice",
+    source: "Lapbench default",
+  },
+  brakeOnStraightMaxLeanDeg: {
+    value: 10,
+    unit: "deg",
+    rationale: "A straight is ridden upright; trail braking into a corner at lean is meant.",
+    source: "Lapbench default",
+  },
+  brakeOnStraightMinSpeedMs: {
+    value: 100 / 3.6,
+    unit: "m/s",
+    rationale: "100 km/h: slower than that the bike is in a slow corner or the pit lane, not on a straight.",
+    source: "Lapbench default",
   },
   brakeOnStraightMinDurationS: {
     value: 0.1,
@@ -31,16 +62,10 @@ export const DEFAULT_THRESHOLDS = {
     rationale: "Ignores a single-sample spike from a noisy pressure sensor.",
     source: "Lapbench default",
   },
-  revCeilingRpm: {
-    value: 14000,
-    unit: "rpm",
-    rationale: "Rev ceilings for 1000 cc four-cylinder superbikes sit around 14,000–14,300 rpm; set the class's own figure per bike.",
-    source: "common practice",
-  },
   pitSpeedLimitMs: {
-    value: 60 / 3.6,
+    value: 40 / 3.6,
     unit: "m/s",
-    rationale: "60 km/h; pit-lane limits are 40 km/h in some national series and 60 km/h in others — set the track's own.",
+    rationale: "40 km/h, the lower and safer of the usual figures (40 km/h in some national series, 60 km/h in others) — set the track's own.",
     source: "common practice",
   },
   pitOverspeedMinDurationS: {
@@ -59,6 +84,12 @@ export const DEFAULT_THRESHOLDS = {
     value: 0.3,
     unit: "s",
     rationale: "Short slip peaks are normal on a drive; only sustained spin is worth a look.",
+    source: "Lapbench default",
+  },
+  wheelieDecelMs2: {
+    value: 5,
+    unit: "m/s²",
+    rationale: "A front wheel slowing faster than 5 m/s² with the throttle open is in the air (a wheelie), not braking: slip measured against it is not spin.",
     source: "Lapbench default",
   },
   wheelSpinMinThrottlePct: {

@@ -7,6 +7,8 @@ export interface DecodeProgress {
   bytesRead: number;
   /** Complete lines seen so far (LF count). */
   lines: number;
+  /** NUL bytes dropped (only with `dropNul`). */
+  nulBytes?: number;
 }
 
 export interface DecodeOptions {
@@ -16,6 +18,11 @@ export interface DecodeOptions {
   /** Called once with the sniffed format before any text is yielded; throw to refuse it. */
   onFormat?: (sniff: Exclude<SniffResult, { format: "rejected" }>) => void;
   progress?: DecodeProgress;
+  /**
+   * Drop NUL bytes instead of refusing the file, counting them in `progress.nulBytes`: a GPS
+   * receiver that restarts mid-log writes a few (NMEA only; a CSV with one is still binary).
+   */
+  dropNul?: boolean;
 }
 
 /**
@@ -44,7 +51,15 @@ export async function* decodeTextStream(source: AsyncIterable<Buffer | string | 
         byteOffset: limits.maxBytes,
       });
     }
-    const nul = buf.indexOf(0);
+    let nul = buf.indexOf(0);
+    if (nul >= 0 && options.dropNul) {
+      const kept = Buffer.allocUnsafe(buf.length);
+      let k = 0;
+      for (let i = 0; i < buf.length; i++) if (buf[i] !== 0) kept[k++] = buf[i];
+      progress.nulBytes = (progress.nulBytes ?? 0) + (buf.length - k);
+      buf = kept.subarray(0, k);
+      nul = -1;
+    }
     if (nul >= 0) {
       throw new IngestError("BINARY_FILE", `Zero byte at byte offset ${chunkStart + nul} (line ${line + countLf(buf, nul)}): this is a binary file, not text.`, {
         line: line + countLf(buf, nul),

@@ -21,4 +21,10 @@ export interface MappedColumn {
 export interface Mapping {
   columns: MappedColumn[];
   timeFormat: TimeFormat;
+  /**
+   * Rows repeating the time stamp of the row before (a 1 kHz log exported with rounded times):
+   * "refuse" the file (default) or "keepFirst" — keep the first row of each time stamp, drop and
+   * count the others.
+   */
+  duplicateTimes?: "refuse" | "keepFirst";
 }

@@ -154,7 +154,7 @@ export async function parseCsvStream(
     await decoded.return(undefined);
     throw e;
   }
-  const { timeColumn, channels } = plan;
+  const { timeColumn, channels, textColumns } = plan;
   const rest = preamble.slice(header.dataStartOffset);
   preamble = "";
   const sink = options.sink;
@@ -218,6 +218,12 @@ export async function parseCsvStream(
   let prevLine = 0;
   let firstTimeCell = "";
   let pendingShort: { line: number; found: number } | undefined;
+  let missingMarkers = 0;
+  const keepFirstOfDuplicates = mapping.duplicateTimes === "keepFirst";
+  let duplicateRows = 0;
+  const isOther = channels.map((c) => c.role === "other");
+  const textCells = new Array<number>(channels.length).fill(0);
+  const textExample = new Array<string>(channels.length).fill("");
 
   /** Hand rows [sent, pos) of the current storage block to the sink. */
   function send(): void {
@@ -316,10 +322,16 @@ export async function parseCsvStream(
         firstTimeCell = tCell.trim();
       } else if (!(t > prevRaw)) {
         if (t === prevRaw) {
-          throw new IngestError("DUPLICATE_TIME", `Line ${line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(tCell.trim())} repeats the one on line ${prevLine}; time stamps must be unique.`, {
-            line,
-            column: timeHeader,
-          });
+          if (keepFirstOfDuplicates) {
+            duplicateRows++;
+            continue;
+          }
+          throw new IngestError(
+            "DUPLICATE_TIME",
+            `Line ${line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(tCell.trim())} repeats the one on line ${prevLine}; time stamps must be unique. ` +
+              "If the export rounded the times, import it keeping the first row of each time stamp.",
+            { line, column: timeHeader },
+          );
         }
         throw new IngestError(
           "TIME_BACKWARDS",
@@ -341,7 +353,21 @@ export async function parseCsvStream(
         }
         let raw: number | undefined = plainDecimal(cell);
         if (raw !== raw) raw = parseNumber(cell, decimalComma);
-        if (raw === undefined) throw describeBadCell(cell, line, channels[k].header, decimalComma);
+        if (raw === undefined) {
+          // R and many statistics tools write NA for a missing value: no sample, like an empty cell.
+          if (cell === "NA" || cell === "\"NA\"") {
+            values[k][pos] = NaN;
+            missingMarkers++;
+            continue;
+          }
+          if (isOther[k]) {
+            // Text later on in a column left as "other": that cell is left out and counted.
+            values[k][pos] = NaN;
+            if (textCells[k]++ === 0) textExample[k] = cell;
+            continue;
+          }
+          throw describeBadCell(cell, line, channels[k].header, decimalComma);
+        }
         if (raw !== raw) {
           values[k][pos] = NaN;
           continue;
@@ -442,9 +468,27 @@ export async function parseCsvStream(
   }
   values = [];
   const metadata: Record<string, string> = { ...header.metadata, source_format: "csv", time_format: timeFormat, first_time_value: firstTimeCell };
-  if (timeFormat === "iso8601") metadata.start_time_iso = new Date(t0).toISOString();
+  if (timeFormat === "iso8601") {
+    metadata.start_time_iso = new Date(t0).toISOString();
+    // A zone-less date-time is wall-clock time: the track's zone decides the instant at ingest.
+    if (!/(Z|[+-]\d{2}:?\d{2})$/.test(firstTimeCell)) metadata.time_zone_in_file = "no";
+  }
+  const notes: string[] = [];
+  if (textColumns.length) {
+    notes.push(`${textColumns.length === 1 ? "1 column holds" : `${textColumns.length} columns hold`} text, not numbers, and ${textColumns.length === 1 ? "was" : "were"} left out: ${textColumns.map((c) => `${quoteForMessage(c.name)} (e.g. ${quoteForMessage(c.example)})`).join(", ")}.`);
+  }
+  for (let k = 0; k < nch; k++) {
+    if (textCells[k]) notes.push(`Column ${quoteForMessage(channels[k].header)} (other): ${textCells[k].toLocaleString("en-GB")} cells of text (e.g. ${quoteForMessage(textExample[k])}) left out.`);
+  }
+  if (duplicateRows) notes.push(`${duplicateRows.toLocaleString("en-GB")} rows repeating the time stamp of the row before were dropped (the first row of each time stamp kept).`);
+  if (missingMarkers) notes.push(`${missingMarkers.toLocaleString("en-GB")} cells written NA were read as empty (no sample).`);
+  const runs = separateRuns(joinedTime);
+  if (runs.count > 1) {
+    notes.push(`The file holds ${runs.count} separate runs: the time jumps ${runs.count - 1} times by more than ${formatGap(runs.gapS)} (longest gap ${formatGap(runs.longestGapS)}). Upload each run as its own file to get a session per run.`);
+    metadata.separate_runs = String(runs.count);
+  }
   onProgress?.({ bytesRead: progress.bytesRead, rows });
-  return { timeS: joinedTime, channels: out, metadata, rows };
+  return { timeS: joinedTime, channels: out, metadata, rows, ...(notes.length ? { notes } : {}) };
 }
 
 function joinBlocks<T extends SampleArray>(blocks: SampleArray[], into: T): T {
@@ -491,7 +535,7 @@ function plainDecimal(s: string): number {
 }
 
 /** Check the mapping against this file's header and work out each column's conversion to SI. */
-function planColumns(header: CsvHeader, mapping: Mapping): { timeColumn: MappedColumn; channels: ChannelPlan[] } {
+function planColumns(header: CsvHeader, mapping: Mapping): { timeColumn: MappedColumn; channels: ChannelPlan[]; textColumns: { name: string; example: string }[] } {
   const byIndex = new Map(header.columns.map((c) => [c.index, c]));
   for (const m of mapping.columns) {
     const col = byIndex.get(m.index);
@@ -513,8 +557,18 @@ function planColumns(header: CsvHeader, mapping: Mapping): { timeColumn: MappedC
   }
   const seenRoles = new Map<string, string>();
   const channels: ChannelPlan[] = [];
+  const textColumns: { name: string; example: string }[] = [];
   for (const m of mapping.columns) {
     if (m.role === "time" || m.role === "ignore") continue;
+    if (m.role === "other") {
+      // A column left as "other" whose first rows hold text (a source name, a local date-time)
+      // is not a channel: it is left out, with a note, instead of refusing the file.
+      const text = header.sampleRows.map((r) => (r[m.index] ?? "").trim()).find((c) => c !== "" && c !== "NA" && parseNumberCell(c, header.decimalComma) === undefined);
+      if (text !== undefined) {
+        textColumns.push({ name: m.name, example: text });
+        continue;
+      }
+    }
     if (m.role !== "other") {
       const before = seenRoles.get(m.role);
       if (before !== undefined) {
@@ -531,7 +585,7 @@ function planColumns(header: CsvHeader, mapping: Mapping): { timeColumn: MappedC
   if (channels.length === 0) {
     throw new IngestError("ONLY_TIME_COLUMN", `The file has only a time column (${quoteForMessage(times[0].name)}) and no data channels to import.`);
   }
-  return { timeColumn: times[0], channels };
+  return { timeColumn: times[0], channels, textColumns };
 }
 
 /** Milliseconds since the epoch of an ISO 8601 date-time (no zone = UTC), keeping sub-ms digits. */
@@ -553,4 +607,35 @@ function countLf(s: string): number {
   let n = 0;
   for (let i = s.indexOf("\n"); i >= 0; i = s.indexOf("\n", i + 1)) n++;
   return n;
+}
+
+/**
+ * Stretches of a log separated by long pauses: a step longer than 2 minutes and 100 × the median
+ * step (Lapbench default) starts a new run — a logger left on between outings, or several drives
+ * exported into one file.
+ */
+export function separateRuns(timeS: Float64Array): { count: number; gapS: number; longestGapS: number } {
+  const n = timeS.length;
+  if (n < 3) return { count: 1, gapS: 120, longestGapS: 0 };
+  const stride = Math.max(1, Math.floor((n - 1) / 100000));
+  const steps: number[] = [];
+  for (let i = 0; i + 1 < n; i += stride) steps.push(timeS[i + 1] - timeS[i]);
+  steps.sort((a, b) => a - b);
+  const median = steps[steps.length >> 1];
+  const gapS = Math.max(120, 100 * median);
+  let count = 1;
+  let longest = 0;
+  for (let i = 0; i + 1 < n; i++) {
+    const step = timeS[i + 1] - timeS[i];
+    if (step > gapS) count++;
+    if (step > longest) longest = step;
+  }
+  return { count, gapS, longestGapS: longest };
+}
+
+function formatGap(s: number): string {
+  if (s >= 86400) return `${(s / 86400).toFixed(1)} days`;
+  if (s >= 3600) return `${(s / 3600).toFixed(1)} h`;
+  if (s >= 60) return `${Math.round(s / 60)} min`;
+  return `${s.toFixed(1)} s`;
 }

@@ -10,9 +10,19 @@ export interface ParseNmeaOptions {
   fileName?: string;
   limits?: IngestLimits;
   onProgress?: (p: IngestProgress) => void;
+  /** The time now (ms), for the week-rollover correction; tests pin it. */
+  now?: number;
 }
 
 const DAY_MS = 86_400_000;
+/** GPS week numbers roll over every 1024 weeks (IS-GPS-200, 10-bit week number). */
+const GPS_ROLLOVER_WEEKS = 1024;
+/** A step back in fix time this long is a receiver restart, not damage (Lapbench default). */
+const RESTART_JUMP_MS = 60_000;
+/** Latitude/longitude a fix can have: inside ±90/±180 and not the receiver's (0, 0) placeholder. */
+export function plausiblePosition(lat: number, lon: number): boolean {
+  return Number.isFinite(lat) && Number.isFinite(lon) && Math.abs(lat) <= 90 && Math.abs(lon) <= 180 && !(Math.abs(lat) < 1e-6 && Math.abs(lon) < 1e-6);
+}
 
 /** One fix epoch: the RMC and GGA sentences of the same UTC time of day. */
 interface Epoch {
@@ -25,6 +35,9 @@ interface Epoch {
   altM: number;
   line: number;
   timeText: string;
+  /** Satellites in use and horizontal dilution of precision (GGA), when given. */
+  sats?: number;
+  hdop?: number;
 }
 
 /**
@@ -66,6 +79,7 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
     limits,
     fileName,
     progress,
+    dropNul: true,
     onFormat: (s) => {
       if (s.format === "gpx") throw new IngestError("UNSUPPORTED_TEXT", `"${fileName}" is a GPX file, not NMEA 0183; import it as GPX.`);
     },
@@ -82,6 +96,11 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
   let fixSentences = 0;
   let ignored = 0;
   let nonNmeaLines = 0;
+  let truncated = 0;
+  let unreadable = 0;
+  let spliced = 0;
+  let prefixedLines = 0;
+  let badPosition = 0;
 
   const flush = () => {
     if (current) epochs.push(current);
@@ -97,34 +116,69 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
     return current;
   };
 
-  const handleLine = (raw: string) => {
-    lineNo++;
-    const line = raw.trim();
-    if (line === "") return;
-    if (line.charCodeAt(0) !== 36 /* $ */) {
-      nonNmeaLines++;
-      return;
-    }
-    sentences++;
+  /** One sentence ("$…*hh"); `inNote`: found inside a `#` note line, kept only when intact. */
+  const handleSentence = (line: string, inNote: boolean) => {
+    const star = line.lastIndexOf("*");
+    const hasChecksum = star >= 0 && /^\*[0-9A-Fa-f]{2}$/.test(line.slice(star));
+    if (inNote && !hasChecksum) return;
     let packet: ReturnType<typeof parseUnsafeNmeaSentence>;
     try {
       packet = parseUnsafeNmeaSentence(line);
     } catch {
-      ignored++;
+      if (inNote) return;
+      sentences++;
+      if (!hasChecksum) truncated++;
+      else unreadable++;
       return;
     }
     if (!packet.chxOk) {
-      badChecksum++;
+      if (inNote) return;
+      sentences++;
+      if (hasChecksum) badChecksum++;
+      else truncated++;
       if (!firstBadLine) firstBadLine = lineNo;
       return;
     }
+    sentences++;
     good++;
+    handlePacket(packet, line);
+  };
+
+  const handleLine = (raw: string) => {
+    lineNo++;
+    const line = raw.trim();
+    if (line === "") return;
+    const first = line.indexOf("$");
+    if (first < 0) {
+      nonNmeaLines++;
+      return;
+    }
+    const inNote = line.charCodeAt(0) === 35; /* # */
+    if (first > 0 && !inNote) prefixedLines++;
+    // Sentences spliced onto one line (a receiver cut off mid-sentence) are read one by one.
+    const pieces = line.slice(first).split("$");
+    let any = false;
+    for (let k = 1; k < pieces.length; k++) {
+      if (pieces[k] === "") continue;
+      if (k < pieces.length - 1 && !inNote) spliced++;
+      const before = sentences;
+      handleSentence("$" + pieces[k].trim(), inNote);
+      any ||= sentences > before;
+    }
+    if (!any && inNote) nonNmeaLines++;
+  };
+
+  const handlePacket = (packet: ReturnType<typeof parseUnsafeNmeaSentence>, line: string) => {
     const fields = line.split("*")[0].split(",");
     if (packet.sentenceId === "RMC") {
       fixSentences++;
       const rmc = packet as RMCPacket;
       if (rmc.status !== "valid" || fields[3] === "" || fields[5] === "" || !Number.isFinite(rmc.latitude) || !Number.isFinite(rmc.longitude)) {
         noFix++;
+        return;
+      }
+      if (!plausiblePosition(rmc.latitude, rmc.longitude)) {
+        badPosition++;
         return;
       }
       const frac = fractionMs(fields[1]);
@@ -143,8 +197,15 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
     } else if (packet.sentenceId === "GGA") {
       fixSentences++;
       const gga = packet as GGAPacket;
-      if (!gga.fixType || gga.fixType === "none" || fields[2] === "" || fields[4] === "") {
+      // Fix quality 1–5 is a position fix (GPS, DGPS, PPS, RTK, float RTK); 6 dead reckoning,
+      // 7 manual input and 8 simulation are not (NMEA 0183 GGA field 6).
+      const quality = Number(fields[6]);
+      if (!(quality >= 1 && quality <= 5) || fields[2] === "" || fields[4] === "") {
         noFix++;
+        return;
+      }
+      if (!plausiblePosition(gga.latitude, gga.longitude)) {
+        badPosition++;
         return;
       }
       const t = gga.time;
@@ -159,6 +220,10 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
         e.lon = gga.longitude;
       }
       e.altM = fields[9] === "" ? NaN : gga.altitudeMeters;
+      const sats = Number(fields[7]);
+      const hdop = Number(fields[8]);
+      if (fields[7] !== "" && Number.isFinite(sats)) e.sats = sats;
+      if (fields[8] !== "" && Number.isFinite(hdop)) e.hdop = hdop;
     } else {
       ignored++;
     }
@@ -190,34 +255,84 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
     );
   }
   if (epochs.length === 0) {
-    const why = fixSentences === 0 ? `it has no RMC or GGA sentences (${good} other sentences)` : `none of its ${fixSentences} RMC/GGA sentences has a valid fix (RMC status A or GGA fix quality 1 or more)`;
+    const why = fixSentences === 0 ? `it has no RMC or GGA sentences (${good} other sentences)` : `none of its ${fixSentences} RMC/GGA sentences has a valid fix (RMC status A or GGA fix quality 1–5)`;
     throw new IngestError("NMEA_NO_FIX", `"${fileName}" has no GPS fix: ${why}.`);
   }
 
+  // Dates a receiver gets wrong: a cold start reports 1980 or its firmware's build date until it
+  // has the almanac; a receiver past the GPS week-number rollover reports a date 1024 weeks early.
+  // The session takes the date most of its fixes agree on; fixes dated more than a day from it are
+  // dropped and counted, and a majority date before 2000 is moved on by whole 1024-week cycles.
+  const dated = epochs.filter((e) => !Number.isNaN(e.absMs));
+  let wrongDate = 0;
+  let rolloverWeeks = 0;
+  let kept = epochs;
+  if (dated.length) {
+    const days = dated.map((e) => Math.floor(e.absMs / DAY_MS)).sort((x, y) => x - y);
+    const majorityDay = days[days.length >> 1];
+    kept = epochs.filter((e) => {
+      if (Number.isNaN(e.absMs) || Math.abs(Math.floor(e.absMs / DAY_MS) - majorityDay) <= 1) return true;
+      wrongDate++;
+      return false;
+    });
+    const cycleMs = GPS_ROLLOVER_WEEKS * 7 * DAY_MS;
+    if (majorityDay * DAY_MS < Date.UTC(2000, 0, 1)) {
+      const now = options.now ?? Date.now();
+      let shift = 0;
+      while (majorityDay * DAY_MS + shift + cycleMs <= now) shift += cycleMs;
+      if (shift > 0) {
+        rolloverWeeks = Math.round(shift / (7 * DAY_MS));
+        for (const e of kept) if (!Number.isNaN(e.absMs)) e.absMs += shift;
+      }
+    }
+  }
+  if (kept.length === 0) throw new IngestError("NMEA_NO_FIX", `"${fileName}" has no GPS fix with a usable date: all ${wrongDate} fixes disagree on the day.`);
+
   // Absolute times: RMC epochs carry their date; GGA-only epochs take the time of day forward
   // from the previous epoch (rolling over midnight), or backward from the first dated one.
-  const firstDated = epochs.findIndex((e) => !Number.isNaN(e.absMs));
+  const firstDated = kept.findIndex((e) => !Number.isNaN(e.absMs));
   const hasDate = firstDated >= 0;
-  if (!hasDate) epochs[0].absMs = epochs[0].todMs;
+  if (!hasDate) kept[0].absMs = kept[0].todMs;
   const anchor = hasDate ? firstDated : 0;
-  for (let i = anchor - 1; i >= 0; i--) epochs[i].absMs = epochs[i + 1].absMs - ((epochs[i + 1].todMs - epochs[i].todMs + DAY_MS) % DAY_MS);
-  for (let i = anchor + 1; i < epochs.length; i++) {
-    const prev = epochs[i - 1];
-    const e = epochs[i];
+  for (let i = anchor - 1; i >= 0; i--) kept[i].absMs = kept[i + 1].absMs - ((kept[i + 1].todMs - kept[i].todMs + DAY_MS) % DAY_MS);
+  for (let i = anchor + 1; i < kept.length; i++) {
+    const prev = kept[i - 1];
+    const e = kept[i];
     if (Number.isNaN(e.absMs)) {
       const step = (e.todMs - prev.todMs + DAY_MS) % DAY_MS;
       // A step of over 12 h forward is a step backwards in time of day, not a half-day gap.
       e.absMs = step > DAY_MS / 2 ? prev.absMs - (DAY_MS - step) : prev.absMs + step;
     }
+  }
+
+  // Order: a fix repeating the time of the one before is dropped (counted). A step back of a
+  // minute or more is a receiver that restarted with a wrong clock: the log is cut there and the
+  // longest run of increasing fixes is kept (the others counted). A small step back is damage.
+  let repeated = 0;
+  const runs: Epoch[][] = [[kept[0]]];
+  for (let i = 1; i < kept.length; i++) {
+    const run = runs[runs.length - 1];
+    const prev = run[run.length - 1];
+    const e = kept[i];
     if (e.absMs === prev.absMs) {
-      throw new IngestError("DUPLICATE_TIME", `Line ${e.line}: the fix time ${formatTod(e.todMs)} repeats the fix on line ${prev.line}; fix times must be unique.`, { line: e.line });
+      repeated++;
+      continue;
     }
     if (e.absMs < prev.absMs) {
+      if (prev.absMs - e.absMs >= RESTART_JUMP_MS) {
+        runs.push([e]);
+        continue;
+      }
       throw new IngestError("TIME_BACKWARDS", `Line ${e.line}: the fix time ${formatTod(e.todMs)} is before the fix on line ${prev.line} (${formatTod(prev.todMs)}); fix times must increase.`, {
         line: e.line,
       });
     }
+    run.push(e);
   }
+  const longest = runs.reduce((best, r) => (r.length > best.length ? r : best), runs[0]);
+  const clockJumpDropped = kept.length - repeated - longest.length;
+  epochs.length = 0;
+  epochs.push(...longest);
 
   const n = epochs.length;
   const t0 = epochs[0].absMs;
@@ -236,11 +351,34 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
     nmea_ignored_sentences: String(ignored),
   };
   if (firstBadLine) metadata.nmea_first_bad_checksum_line = String(firstBadLine);
+  if (truncated) metadata.nmea_truncated_sentences = String(truncated);
+  if (unreadable) metadata.nmea_unreadable_sentences = String(unreadable);
+  if (spliced) metadata.nmea_spliced_lines = String(spliced);
+  if (progress.nulBytes) metadata.nmea_nul_bytes = String(progress.nulBytes);
+  if (badPosition) metadata.nmea_bad_position_fixes = String(badPosition);
+  if (wrongDate) metadata.nmea_wrong_date_fixes = String(wrongDate);
+  if (repeated) metadata.nmea_repeated_fixes = String(repeated);
+  if (clockJumpDropped) metadata.nmea_clock_jump_dropped_fixes = String(clockJumpDropped);
+  if (rolloverWeeks) metadata.nmea_date_corrected_weeks = String(rolloverWeeks);
+  const notes: string[] = [];
+  const skipped = badChecksum + truncated + unreadable;
+  if (skipped) {
+    const parts = [badChecksum && `${badChecksum} bad checksum`, truncated && `${truncated} truncated or without checksum`, unreadable && `${unreadable} unreadable`].filter(Boolean);
+    notes.push(`${skipped} ${skipped === 1 ? "sentence" : "sentences"} skipped: ${parts.join(", ")}.`);
+  }
+  if (progress.nulBytes) notes.push(`${progress.nulBytes} zero bytes dropped (the receiver restarted).`);
+  if (badPosition) notes.push(`${badPosition} fixes at (0, 0) or out of range dropped.`);
+  if (wrongDate) notes.push(`${wrongDate} fixes dated more than a day from the rest (a cold start or a receiver's wrong clock) dropped.`);
+  if (rolloverWeeks) notes.push(`The receiver's dates were ${rolloverWeeks} weeks early (GPS week-number rollover); corrected.`);
+  if (repeated) notes.push(`${repeated} fixes repeating the time of the one before dropped.`);
+  if (clockJumpDropped) notes.push(`${clockJumpDropped} fixes after the receiver's clock jumped back dropped; the longest run of fixes in time order is kept.`);
   if (nonNmeaLines) metadata.nmea_other_lines = String(nonNmeaLines);
   if (hasDate) metadata.start_time_iso = new Date(t0).toISOString();
   else metadata.start_time_of_day_utc = formatTod(epochs[0].todMs);
   options.onProgress?.({ bytesRead: progress.bytesRead, rows: n });
-  return { timeS, channels, metadata, rows: n };
+  const sats = epochs.some((e) => e.sats !== undefined) ? Float32Array.from(epochs, (e) => e.sats ?? NaN) : undefined;
+  const hdop = epochs.some((e) => e.hdop !== undefined) ? Float32Array.from(epochs, (e) => e.hdop ?? NaN) : undefined;
+  return { timeS, channels, metadata, rows: n, notes, ...(sats || hdop ? { fixQuality: { sats, hdop } } : {}) };
 }
 
 /** UTC time of day in ms from an hhmmss(.sss) field; NaN if malformed. */

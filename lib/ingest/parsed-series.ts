@@ -28,6 +28,10 @@ export interface ParsedSeries {
   metadata: Record<string, string>;
   /** Number of rows (= timeS.length). */
   rows: number;
+  /** What the reader skipped or corrected, one sentence each, for the session page. */
+  notes?: string[];
+  /** Satellites in use and HDOP per row, where the file gives them (NaN where not). */
+  fixQuality?: { sats?: Float32Array; hdop?: Float32Array };
 }
 
 export interface IngestProgress {

@@ -57,6 +57,10 @@ export function sniffFormat(firstBytes: Buffer, fileName: string, isWholeFile = 
   }
   const hasBom = startsWith(firstBytes, [0xef, 0xbb, 0xbf]);
   const nul = firstBytes.indexOf(0);
+  if (nul >= 0 && looksLikeNmea(Buffer.from(firstBytes.filter((b) => b !== 0)).toString("latin1"))) {
+    // A GPS receiver that restarts mid-log writes NUL bytes between its sentences; the NMEA reader drops them.
+    return { format: "nmea", hasBom };
+  }
   if (nul >= 0) {
     // UTF-16 without a byte-order mark: ASCII text with every other byte NUL.
     let nulsAtOdd = 0;
@@ -98,8 +102,24 @@ export function sniffFormat(firstBytes: Buffer, fileName: string, isWholeFile = 
       return { format: "rejected", code: "GPX_NOT_GPX", reason: `"${fileName}" is XML but has no <gpx> root element in its first 4 KiB; only GPX 1.1 is accepted as XML.` };
     }
   }
-  // NMEA 0183: "$" + talker (GP, GN, GL, GA, GB, BD) + sentence id + ",".
-  const firstLine = text.split(/\r?\n/, 1)[0];
-  if (/^\$(GP|GN|GL|GA|GB|BD)[A-Z]{3},/.test(firstLine)) return { format: "nmea", hasBom };
+  if (looksLikeNmea(text)) return { format: "nmea", hasBom };
   return { format: "csv", hasBom };
+}
+
+/** "$" + talker + sentence id + ",": any talker (GP, GN, GL, BD, proprietary P…), as NMEA 0183 allows. */
+const NMEA_SENTENCE = /\$[A-Z][A-Z0-9]{3,6},/;
+
+/**
+ * NMEA 0183 text: the first line is a sentence, or most of the first lines that are not `#` notes
+ * hold one (capture tools put notes first, some loggers prefix each sentence with a time stamp).
+ */
+function looksLikeNmea(text: string): boolean {
+  const lines = text.split(/\r?\n/, 60).map((l) => l.trim()).filter((l) => l !== "");
+  if (lines.length === 0) return false;
+  if (/^\$(GP|GN|GL|GA|GB|BD)[A-Z]{3},/.test(lines[0])) return true;
+  const body = lines.filter((l) => !l.startsWith("#"));
+  const withSentence = lines.filter((l) => NMEA_SENTENCE.test(l) && /\*[0-9A-Fa-f]{2}$/.test(l)).length;
+  if (body.length === 0) return withSentence > 0;
+  const sentences = body.filter((l) => NMEA_SENTENCE.test(l)).length;
+  return sentences >= Math.max(1, body.length / 2) || (withSentence > 0 && withSentence >= body.length / 4);
 }

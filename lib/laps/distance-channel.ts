@@ -1,5 +1,6 @@
 import { toLocalMetres } from "@/lib/geo/to-local-metres";
 import { extractFixes } from "./extract-fixes";
+import { distanceWheel } from "./live-wheel-speed";
 import { lowerBound } from "./lower-bound";
 import type { Lap, NumericArray, SeriesLike } from "./types";
 
@@ -12,8 +13,16 @@ export interface DistanceChannel {
   lapLengthM: Float64Array;
   /** Per lap: GPS length ÷ integrated wheel distance (1 where not rescaled). */
   lapScale: Float64Array;
-  source: "speed_front" | "gps" | "none";
+  source: "speed_front" | "speed_rear" | "gps" | "none";
+  /**
+   * Per lap: GPS length ÷ wheel distance where it was beyond MAX_RESCALE (then the wheel distance
+   * is kept, as a GPS gap or a wrong circumference is likelier than the tyre); NaN elsewhere.
+   */
+  lapScaleRejected: Float64Array;
 }
+
+/** The largest per-lap rescale of wheel distance to GPS length believed: ±5 % (Lapbench default). */
+export const MAX_RESCALE = 0.05;
 
 /** Linear interpolation of y(t) at time t over ascending ts (binary search); clamps at the ends. */
 function interpAt(ts: Float64Array, ys: Float64Array, t: number): number {
@@ -91,18 +100,21 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
   }
   const gpsAt = (time: number) => interpAt(fixes.timeS, gpsCum, time);
 
-  const wheel = series.channels.speed_front;
+  // A dead front sensor (0 while the bike moves) is skipped: GPS, else the rear wheel, instead.
+  const live = distanceWheel(series, nf > 1);
+  const wheel = live?.speedMs;
   const nLaps = laps.length;
   const lapStartDistanceM = new Float64Array(nLaps);
   const lapLengthM = new Float64Array(nLaps);
   const lapScale = new Float64Array(nLaps).fill(1);
+  const lapScaleRejected = new Float64Array(nLaps).fill(NaN);
 
   let hasWheel = false;
   if (wheel) for (let i = 0; i < n && !hasWheel; i++) hasWheel = Number.isFinite(wheel[i]);
 
   if (!hasWheel) {
     const distanceM = new Float64Array(n);
-    if (nf === 0) return { distanceM, lapStartDistanceM, lapLengthM, lapScale, source: "none" };
+    if (nf === 0) return { distanceM, lapStartDistanceM, lapLengthM, lapScale, source: "none", lapScaleRejected };
     // Walk the fixes alongside the clock: both ascend, so no search per sample.
     let k = 0;
     for (let i = 0; i < n; i++) {
@@ -119,7 +131,7 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
       lapStartDistanceM[l] = gpsAt(laps[l].startTimeS);
       lapLengthM[l] = gpsAt(laps[l].endTimeS) - lapStartDistanceM[l];
     }
-    return { distanceM, lapStartDistanceM, lapLengthM, lapScale, source: "gps" };
+    return { distanceM, lapStartDistanceM, lapLengthM, lapScale, source: "gps", lapScaleRejected };
   }
 
   const w = integrateSpeed(t, wheel!);
@@ -135,7 +147,11 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
     const wheelLen = wheelEnd[l] - wheelStart[l];
     const gpsLen = nf > 1 ? gpsAt(laps[l].endTimeS) - gpsAt(laps[l].startTimeS) : NaN;
     // Rescale only when both lengths are real distances (a lap spent parked has neither).
-    if (wheelLen > 1 && gpsLen > 1) lapScale[l] = gpsLen / wheelLen;
+    if (wheelLen > 1 && gpsLen > 1) {
+      const ratio = gpsLen / wheelLen;
+      if (Math.abs(ratio - 1) <= MAX_RESCALE) lapScale[l] = ratio;
+      else lapScaleRejected[l] = ratio;
+    }
     lapLengthM[l] = lapScale[l] * wheelLen;
   }
 
@@ -172,5 +188,5 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
     if (atStart) lapStartDistanceM[lap] = anchorD + scale * (wheelStart[lap] - anchorW);
     atStart = true;
   }
-  return { distanceM: w, lapStartDistanceM, lapLengthM, lapScale, source: "speed_front" };
+  return { distanceM: w, lapStartDistanceM, lapLengthM, lapScale, source: live!.role, lapScaleRejected };
 }

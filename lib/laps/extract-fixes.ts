@@ -11,8 +11,13 @@ export interface SeriesFixes extends GpsFixes {
   speedMs: Float64Array;
 }
 
+/** A usable position: finite, within ±90° / ±180°, and not the (0, 0) a receiver writes without a fix. */
+export function validFix(lat: number, lon: number): boolean {
+  return Number.isFinite(lat) && Number.isFinite(lon) && Math.abs(lat) <= 90 && Math.abs(lon) <= 180 && !(lat === 0 && lon === 0);
+}
+
 /**
- * The samples where both gps_lat and gps_lon hold a value (the fixes of a GPS logged slower than
+ * The samples where both gps_lat and gps_lon hold a usable value (validFix) (the fixes of a GPS logged slower than
  * the master clock), as compact Float64 arrays. Two passes: count, then fill, no growing arrays.
  */
 export function extractFixes(series: SeriesLike): SeriesFixes {
@@ -22,7 +27,7 @@ export function extractFixes(series: SeriesLike): SeriesFixes {
   const t = series.timeS;
   let n = 0;
   if (lat && lon) {
-    for (let i = 0; i < t.length; i++) if (Number.isFinite(lat[i]) && Number.isFinite(lon[i])) n++;
+    for (let i = 0; i < t.length; i++) if (validFix(lat[i], lon[i])) n++;
   }
   const out: SeriesFixes = {
     timeS: new Float64Array(n),
@@ -38,7 +43,7 @@ export function extractFixes(series: SeriesLike): SeriesFixes {
   for (let i = 0; i < t.length; i++) {
     const la = lat[i];
     const lo = lon[i];
-    if (!Number.isFinite(la) || !Number.isFinite(lo)) continue;
+    if (!validFix(la, lo)) continue;
     timeS[k] = t[i];
     latDeg[k] = la;
     lonDeg[k] = lo;

@@ -47,9 +47,11 @@ export interface Lap {
   complete: boolean;
   /** Set by a person or a later check (track limits, red flag); detection never sets it. */
   invalid?: boolean;
+  /** Over 1.5 × the session's median flying lap: likely two laps merged by a missed crossing (markSuspectLaps). */
+  suspect?: boolean;
 }
 
-/** A flying lap: complete and not out, in, pit-pass or marked invalid. */
+/** A flying lap: complete and not out, in, pit-pass, marked invalid or suspect. */
 export function isFlyingLap(lap: Lap): boolean {
-  return lap.complete && !lap.outLap && !lap.inLap && !lap.pitPass && !lap.invalid;
+  return lap.complete && !lap.outLap && !lap.inLap && !lap.pitPass && !lap.invalid && !lap.suspect;
 }

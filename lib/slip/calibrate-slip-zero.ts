@@ -13,6 +13,14 @@ export interface SlipZeroOptions {
   halfWindowS?: number;
   /** Fewer qualifying samples than this → no calibration (ratio 1). Default 20. */
   minSamples?: number;
+  /**
+   * Part or closed throttle only: at or above this throttle (%) the rear may be driving (spinning)
+   * and is never taken as zero. Default 80 (Lapbench default).
+   */
+  maxThrottlePct?: number;
+  /** A ratio outside these bounds is a wrong circumference or a faulty sensor, not a zero. Default 0.9–1.1 (Lapbench default). */
+  minRatio?: number;
+  maxRatio?: number;
 }
 
 export interface SlipZeroResult {
@@ -20,6 +28,10 @@ export interface SlipZeroResult {
   ratio: number;
   sampleCount: number;
   applied: boolean;
+  /** The median ratio found when it fell outside the bounds (then not applied); null otherwise. */
+  outOfBoundsRatio?: number | null;
+  /** Why no zero was applied, in words for the page; null when applied. */
+  reason?: string | null;
 }
 
 /**
@@ -36,6 +48,9 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
   const maxAccelMs2 = opts.maxAccelMs2 ?? 1;
   const halfWindowS = opts.halfWindowS ?? 0.25;
   const minSamples = opts.minSamples ?? 20;
+  const maxThrottlePct = opts.maxThrottlePct ?? 80;
+  const minRatio = opts.minRatio ?? 0.9;
+  const maxRatio = opts.maxRatio ?? 1.1;
 
   const t = series.timeS;
   const front = series.channels.speed_front;
@@ -64,6 +79,7 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
     if (!(Math.abs(accel) <= maxAccelMs2)) continue;
     if (throttle) {
       const th = throttle[i];
+      if (!(th < maxThrottlePct)) continue;
       if (!(Math.abs(throttle[lo] - th) <= maxThrottleChangePct && Math.abs(throttle[hi] - th) <= maxThrottleChangePct)) continue;
     }
     if (count === ratios.length) {
@@ -73,9 +89,18 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
     }
     ratios[count++] = vr / vf;
   }
-  if (count < minSamples) return { ratio: 1, sampleCount: count, applied: false };
+  if (count < minSamples) return { ratio: 1, sampleCount: count, applied: false, outOfBoundsRatio: null, reason: "not enough steady straight running at part throttle" };
   const sorted = ratios.subarray(0, count).sort();
   const mid = count >> 1;
   const ratio = count % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
-  return { ratio, sampleCount: count, applied: true };
+  if (!(ratio >= minRatio && ratio <= maxRatio)) {
+    return {
+      ratio: 1,
+      sampleCount: count,
+      applied: false,
+      outOfBoundsRatio: ratio,
+      reason: `rear/front ratio ${ratio.toFixed(3)} on steady straights is outside ${minRatio}–${maxRatio}: check the wheel circumferences and both wheel-speed sensors`,
+    };
+  }
+  return { ratio, sampleCount: count, applied: true, outOfBoundsRatio: null, reason: null };
 }

@@ -2,14 +2,16 @@ import type { SeriesLike } from "@/lib/laps/types";
 import { calibrateSlipZero, type SlipZeroOptions } from "./calibrate-slip-zero";
 import { effectiveRollingRadiusM } from "./effective-rolling-radius";
 
+/**
+ * Both tyres' upright rolling radius and crown (cross-section) radius (m) — bike settings. Both
+ * wheels are corrected: correcting the rear alone turns a true 0 % slip at 45° lean into about
+ * −6 %, worse than no correction.
+ */
 export interface LeanCorrection {
-  /** Upright rolling radius of the rear tyre (m). */
   rearRadiusM: number;
-  /** Crown (cross-section) radius of the rear tyre (m) — a bike setting. */
   rearCrownRadiusM: number;
-  /** Front tyre; when omitted the front speed is not corrected. */
-  frontRadiusM?: number;
-  frontCrownRadiusM?: number;
+  frontRadiusM: number;
+  frontCrownRadiusM: number;
 }
 
 export interface DriveSlipOptions {
@@ -50,14 +52,13 @@ export function driveSlip(series: SeriesLike, opts: DriveSlipOptions = {}): Floa
     const vfRaw = front[i];
     if (!(vfRaw >= minFrontSpeedMs)) continue;
     let vf = vfRaw;
+    if (!Number.isFinite(rear[i])) continue;
     let vr = rear[i] / zeroRatio;
     if (lc && leanCh) {
       const leanDeg = leanCh[i];
       if (Number.isFinite(leanDeg)) {
         vr *= effectiveRollingRadiusM(lc.rearRadiusM, lc.rearCrownRadiusM, leanDeg) / lc.rearRadiusM;
-        if (lc.frontRadiusM !== undefined && lc.frontCrownRadiusM !== undefined) {
-          vf *= effectiveRollingRadiusM(lc.frontRadiusM, lc.frontCrownRadiusM, leanDeg) / lc.frontRadiusM;
-        }
+        vf *= effectiveRollingRadiusM(lc.frontRadiusM, lc.frontCrownRadiusM, leanDeg) / lc.frontRadiusM;
       }
     }
     out[i] = (vr - vf) / vf;

@@ -1,3 +1,5 @@
+import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
+
 export interface SpinEventOptions {
   /**
    * Slip above this counts as spin. Default 0.08 — Lapbench's starting setting, not a published
@@ -6,8 +8,15 @@ export interface SpinEventOptions {
   targetSlip?: number;
   /** Only under open throttle: throttle at or above this (%). Default 20. */
   minThrottlePct?: number;
-  /** Shorter excursions are ignored (s). Default 0.1. */
+  /** Shorter excursions are ignored (s). Default DEFAULT_THRESHOLDS.wheelSpinMinDurationS (0.3), the same for the page and the finding. */
   minDurationS?: number;
+  /**
+   * Wheelie guard: the front wheel speed. Where it slows faster than `wheelieDecelMs2` with the
+   * throttle open, the front is in the air (it is not braking), so the slip against it is not spin.
+   */
+  frontSpeedMs?: ArrayLike<number>;
+  /** Default DEFAULT_THRESHOLDS.wheelieDecelMs2 (5 m/s², Lapbench default). */
+  wheelieDecelMs2?: number;
   /** Excursions separated by less than this are one event (s). Default 0.1. */
   mergeGapS?: number;
 }
@@ -36,7 +45,19 @@ export function spinEvents(
 ): SpinEvent[] {
   const targetSlip = opts.targetSlip ?? 0.08;
   const minThrottlePct = opts.minThrottlePct ?? 20;
-  const minDurationS = opts.minDurationS ?? 0.1;
+  const minDurationS = opts.minDurationS ?? DEFAULT_THRESHOLDS.wheelSpinMinDurationS.value;
+  const front = opts.frontSpeedMs;
+  const wheelieDecel = opts.wheelieDecelMs2 ?? DEFAULT_THRESHOLDS.wheelieDecelMs2.value;
+  /** Front deceleration over ±0.1 s around sample i (m/s², positive when slowing). */
+  let lo = 0;
+  let hi = 0;
+  const frontDecel = (i: number): number => {
+    while (timeS[i] - timeS[lo] > 0.1) lo++;
+    if (hi < i) hi = i;
+    while (hi + 1 < n && timeS[hi + 1] - timeS[i] <= 0.1) hi++;
+    if (hi === lo || !front) return 0;
+    return -(front[hi] - front[lo]) / (timeS[hi] - timeS[lo]);
+  };
   const mergeGapS = opts.mergeGapS ?? 0.1;
   const n = slip.length;
   const dtS = n > 1 ? (timeS[n - 1] - timeS[0]) / (n - 1) : 0;
@@ -49,7 +70,8 @@ export function spinEvents(
   };
   for (let i = 0; i < n; i++) {
     const s = slip[i];
-    const on = s > targetSlip && (!throttlePct || throttlePct[i] >= minThrottlePct);
+    let on = s > targetSlip && (!throttlePct || throttlePct[i] >= minThrottlePct);
+    if (on && front && frontDecel(i) > wheelieDecel) on = false;
     if (!on) continue;
     if (cur && timeS[i] - cur.endTimeS > mergeGapS + 1e-9) close();
     if (!cur) {

@@ -10,6 +10,7 @@ import * as logFileHash from "./0010-log-file-hash";
 import * as uploadGrants from "./0020-upload-grants";
 import * as teamRecord from "./0030-team-record";
 import * as analysisVersion from "./0040-analysis-version";
+import * as bikeFrontCrownTrackZone from "./0015-bike-front-crown-track-zone";
 
 export interface Migration {
   name: string;
@@ -22,6 +23,7 @@ export const migrations: Migration[] = [
   { name: "0002-domain", ...domain },
   { name: "0003-stored-analysis", ...storedAnalysis },
   { name: "0010-log-file-hash", ...logFileHash },
+  { name: "0015-bike-front-crown-track-zone", ...bikeFrontCrownTrackZone },
   { name: "0020-upload-grants", ...uploadGrants },
   { name: "0030-team-record", ...teamRecord },
   { name: "0040-analysis-version", ...analysisVersion },

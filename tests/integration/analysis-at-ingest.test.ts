@@ -80,7 +80,8 @@ beforeAll(async () => {
   const brake = truth.events.find((e) => e.kind === "brake_on_straight")!;
   // The truth states its own brake-on-straight rule ("front brake ≥ 1 bar while throttle > 80 %");
   // the track carries it as its thresholds so start times compare like for like.
-  const thresholds = { brakeOnStraightPressurePa: brake.limit.value, brakeOnStraightThrottlePct: Number(/throttle > (\d+)/.exec(brake.rule)![1]) };
+  // The margin over the resting pressure is set out of reach: the truth's rule is the absolute one.
+  const thresholds = { brakeOnStraightPressurePa: brake.limit.value, brakeOnStraightThrottlePct: Number(/throttle > (\d+)/.exec(brake.rule)![1]), brakeOnStraightRestMarginPa: 1e9 };
   ({ track } = await ensureTrack(sequelize(), team.teamId, { ...demoTrackInput(), thresholds }));
   // The generator's bike (sample-logs/bike-model.ts): its rev ceiling and strokes.
   const bike = await Bike.create({

@@ -111,14 +111,16 @@ describe("Drive slip", () => {
     expect(onLaps.every((e) => e.corner !== null)).toBe(true);
   });
 
-  it("the lean correction uses the bike's crown radius and only lowers the slip on leaned exits", async () => {
+  it("the lean correction uses both tyres' crown radii and only lowers the slip on leaned exits", async () => {
     const plain = await slipAnalysis(getSequelize(), sessionId);
     const lean = await slipAnalysis(getSequelize(), sessionId, { lean: true });
-    expect(lean.lean).toEqual({ possible: true, applied: true, crownRadiusMm: 95 });
+    expect(lean.lean).toEqual({ possible: true, applied: true, crownRadiusMm: 95, frontCrownRadiusMm: 80 });
     const a = plain.exits.flatMap((l) => l.exits.map((e) => e.meanSlip));
     const b = lean.exits.flatMap((l) => l.exits.map((e) => e.meanSlip));
     expect(b.length).toBe(a.length);
-    // r_eff < r0 at lean scales the rear speed down, so the corrected slip is never higher.
+    // r_eff = r0 − rc·(1 − cos φ) per tyre: the rear (r0 1960/2π = 312 mm, rc 95 mm) shrinks by
+    // 0.305·(1 − cos φ), the front (r0 1850/2π = 294 mm, rc 80 mm) by 0.272·(1 − cos φ), so the rear
+    // scales down more and the corrected slip is never higher (geometry of the crown model).
     for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i])) expect(b[i]).toBeLessThanOrEqual(a[i] + 1e-6);
   });
 });

@@ -7,7 +7,7 @@
 import { Readable } from "node:stream";
 import type { ReadableStream as WebReadableStream } from "node:stream/web";
 import type { Sequelize, Transaction } from "sequelize";
-import { initModels, LogFile, RideSession } from "../../models";
+import { initModels, LogFile, RideSession, Track } from "../../models";
 import { parseCsvStream } from "../../lib/ingest/parse-csv-stream";
 import { parseGpx } from "../../lib/ingest/parse-gpx";
 import { GPX_MAX_BYTES } from "../../lib/ingest/limits";
@@ -114,7 +114,10 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
     }
     const ta = performance.now();
     const summary = await analyseAndStore(sequelize, t, session!, parsed);
-    const startedAt = sessionStartTime(parsed.metadata);
+    // The track (chosen at import or found by the analysis) gives the zone of zone-less times.
+    const trackId = (await RideSession.findByPk(sessionId, { attributes: ["trackId"], transaction: t }))?.trackId;
+    const zone = trackId ? (await Track.findByPk(trackId, { attributes: ["timeZone"], transaction: t }))?.timeZone : null;
+    const startedAt = sessionStartTime(parsed.metadata, zone);
     const durationS = parsed.rows > 1 ? parsed.timeS[parsed.rows - 1] - parsed.timeS[0] : 0;
     await RideSession.update(
       {
@@ -126,6 +129,11 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
       },
       { where: { id: sessionId }, transaction: t },
     );
+    if (parsed.notes?.length) {
+      // What the reader skipped or corrected, shown on the session page.
+      const row = await RideSession.findByPk(sessionId, { attributes: ["summary"], transaction: t });
+      await RideSession.update({ summary: { ...((row?.summary as object | null) ?? {}), importNotes: parsed.notes } }, { where: { id: sessionId }, transaction: t });
+    }
     const pagesMs = summary.pages?.ms ?? 0;
     timings.analysisMs = performance.now() - ta - pagesMs;
     timings.pagesMs = pagesMs;

@@ -46,6 +46,7 @@ export async function createSampleTrackAndBike(teamId: string) {
     forkStrokeMm: 120,
     shockStrokeMm: 65,
     tyreCrownRadiusMm: 95,
+    tyreCrownRadiusFrontMm: 80,
     calibrations: null,
     thresholds: null,
   });

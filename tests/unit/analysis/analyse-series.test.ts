@@ -9,8 +9,8 @@ import { readSampleCsv } from "../findings/read-sample-csv";
 
 describe("mergeThresholds: defaults ⊕ bike ⊕ track", () => {
   it.each([
-    ["track over bike", [{ revCeilingRpm: 14200 }, { revCeilingRpm: 13500 }], { revCeilingRpm: 13500 }],
-    ["bike kept where the track is silent", [{ revCeilingRpm: 14200 }, { gpsDropoutS: 2 }], { revCeilingRpm: 14200, gpsDropoutS: 2 }],
+    ["track over bike", [{ brakeOnStraightPressurePa: 3e5 }, { brakeOnStraightPressurePa: 2.5e5 }], { brakeOnStraightPressurePa: 2.5e5 }],
+    ["bike kept where the track is silent", [{ brakeOnStraightPressurePa: 3e5 }, { gpsDropoutS: 2 }], { brakeOnStraightPressurePa: 3e5, gpsDropoutS: 2 }],
     ["unknown keys and non-finite values dropped", [{ minLapTimeS: 40, wheelSpinTargetSlip: NaN }, null], {}],
   ] as const)("%s", (_label, layers, expected) => {
     expect(mergeThresholds(...(layers as unknown as Record<string, number>[]))).toEqual(expected);

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { powerKw } from "@/lib/engine/power-kw";
+import { kwToHp, NM_PER_LBF_FT, powerHpFromLbfFt } from "@/lib/engine/power-hp";
 import { engineUsage } from "@/lib/engine/engine-usage";
 import { engineLedger } from "@/lib/engine/engine-ledger";
 import { CAUTION_TEXT } from "@/lib/findings/caution";
@@ -13,10 +14,27 @@ describe("powerKw — P = T·ω, kW = N·m·rpm/9549.297 (REFERENCES.md: 60 000/
   ])("%d N·m at %d rpm → %d kW", (T, rpm, kw) => {
     expect(powerKw(T, rpm)).toBeCloseTo(kw, 3);
   });
-  it("≈ 210 hp for 115 N·m at 13 000 rpm — within the 210–220 hp of a national superbike (common practice)", () => {
-    const hp = (powerKw(115, 13000) * 1000) / 745.69987; // NIST SP 811: hp = 745.69987 W
-    expect(hp).toBeGreaterThan(209);
-    expect(hp).toBeLessThan(211);
+});
+
+describe("powerHpFromLbfFt — hp = lbf·ft·rpm/5252.113 (REFERENCES.md: 33 000/2π)", () => {
+  it.each([
+    // At 5252.113 rpm torque in lbf·ft equals horsepower (the relation's own worked example).
+    [100, 5252.113, 100],
+    [1, 33000 / (2 * Math.PI), 1],
+    // 300 lbf·ft at 6000 rpm → 300·6000/5252.113 = 342.719 hp (arithmetic on the relation).
+    [300, 6000, 342.719],
+  ])("%d lbf·ft at %d rpm → %d hp", (T, rpm, hp) => {
+    expect(powerHpFromLbfFt(T, rpm)).toBeCloseTo(hp, 3);
+  });
+
+  it("the two published relations agree: 115 N·m at 13 000 rpm is 156.556 kW and 209.945 hp either way", () => {
+    // 115 N·m = 84.8193 lbf·ft (NIST SP 811: 1 lbf·ft = 1.355818 N·m); 84.8193·13000/5252.113 = 209.945 hp;
+    // 156.556 kW / 0.74570 kW/hp (NIST SP 811) = 209.945 hp.
+    const viaLbfFt = powerHpFromLbfFt(115 / NM_PER_LBF_FT, 13000);
+    const viaKw = kwToHp(powerKw(115, 13000));
+    expect(viaLbfFt).toBeCloseTo(209.945, 3);
+    expect(viaKw).toBeCloseTo(209.945, 3);
+    expect(viaLbfFt).toBeCloseTo(viaKw, 6);
   });
 });
 

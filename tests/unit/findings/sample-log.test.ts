@@ -36,8 +36,10 @@ describe("runFindings on the generated three-lap sample log", () => {
     // The invented bike's strokes (fork 120 mm, shock 65 mm) and its class rev ceiling from the truth.
     bike: { revCeilingRpm: truth.revCeilingRpm, forkStrokeM: 0.12, shockStrokeM: 0.065 },
     // The truth states its own brake-on-straight rule ("≥ 1 bar while throttle > 80 %"); use it so the times compare.
+    // The truth's rule is an absolute pressure and a throttle: the margin over the resting pressure
+    // is set out of reach so the detector applies exactly that rule.
     thresholds: brakeRule
-      ? { brakeOnStraightPressurePa: brakeRule.limit.value, brakeOnStraightThrottlePct: Number(/throttle > (\d+)/.exec(brakeRule.rule)![1]) }
+      ? { brakeOnStraightPressurePa: brakeRule.limit.value, brakeOnStraightThrottlePct: Number(/throttle > (\d+)/.exec(brakeRule.rule)![1]), brakeOnStraightRestMarginPa: 1e9 }
       : {},
   };
   const findings = runFindings(series, ctx);

@@ -89,7 +89,9 @@ describe("suggestMapping", () => {
     ["Time [ms]", ["0", "50"], "milliseconds"],
     ["Time", ["1000", "1050", "1100"], "milliseconds"],
     ["Time", ["0.00", "0.05", "0.10"], "seconds"],
-    ["Time", ["0", "1", "2"], "seconds"],
+    // Whole numbers stepping by 1: a 1 kHz log in integer ms, not a 1 Hz one (a 1000× error otherwise).
+    ["Time", ["0", "1", "2"], "milliseconds"],
+    ["Time", ["5000", "5001", "5002", "5003"], "milliseconds"],
     ["Timestamp", ["2024-05-01T10:00:00.000Z", "2024-05-01T10:00:00.050Z"], "iso8601"],
     ["Timestamp", ["2024-05-01 10:00:00.000", "2024-05-01 10:00:00.050"], "iso8601"],
   ])("time format of %s with %j → %s", (name, values, format) => {

@@ -110,3 +110,38 @@ describe("parseCsvStream", () => {
     expect(s.channels.map((c) => c.name)).toEqual(["Throttle"]);
   });
 });
+
+describe("real-world CSV quirks", () => {
+  it("a 1 kHz export with times rounded to 1 ms repeats stamps: refused by default, first of each kept on request and counted", async () => {
+    // Invented: 1 kHz samples whose times were rounded to whole ms, so every 5th row repeats a stamp.
+    const rows: string[] = [];
+    let t = 0;
+    for (let i = 0; i < 100; i++) {
+      rows.push(`${t},${i}`);
+      if (i % 5 !== 4) t++;
+    }
+    const text = `Time [ms],Throttle [%]\n${rows.join("\n")}\n`;
+    const refused = await ingestErrorOf(parseCsvText(Buffer.from(text), mappingFor(text)));
+    expect(refused.code).toBe("DUPLICATE_TIME");
+    expect(refused.message).toMatch(/keeping the first row of each time stamp/);
+    const kept = await parseCsvText(Buffer.from(text), { ...mappingFor(text), duplicateTimes: "keepFirst" });
+    // 100 rows, 20 repeats (i = 4, 9, …, 99 leave t unchanged for the next row; the last has none after it): 19 dropped.
+    expect(kept.rows).toBe(81);
+    expect(kept.notes?.join(" ")).toMatch(/^19 rows repeating the time stamp/);
+    // The first row of each stamp is kept: throttle at t = 4 ms is row i = 4, not i = 5.
+    const th = kept.channels.find((c) => c.role === "throttle")!.values;
+    expect(th[4]).toBe(4);
+    expect(th[5]).toBe(6);
+  });
+
+  it("NA is an empty cell; a text column left as other is left out with a note", async () => {
+    const text = 'Time [s],Throttle [%],source,Note\n0,NA,"gps",1\n0.1,10,"obd",NA\n0.2,NA,"gps",2\n';
+    const m = mappingFor(text);
+    const p = await parseCsvText(Buffer.from(text), m);
+    const th = p.channels.find((c) => c.role === "throttle")!;
+    expect([...th.values].map((v) => (Number.isNaN(v) ? null : v))).toEqual([null, 10, null]);
+    expect(p.channels.map((c) => c.name)).not.toContain("source");
+    expect(p.notes?.join(" ")).toMatch(/'source' \(e\.g\. 'gps'\)/);
+    expect(p.notes?.join(" ")).toMatch(/3 cells written NA were read as empty/);
+  });
+});

@@ -1,3 +1,4 @@
+import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
 import { describe, expect, it } from "vitest";
 import type { SessionSeries } from "@/lib/channels/roles";
 import { slipRatio } from "@/lib/slip/slip-ratio";
@@ -74,6 +75,32 @@ describe("calibrateSlipZero and driveSlip", () => {
     expect(slip[320]).toBeCloseTo(0.2, 5);
   });
 
+  it("never calibrates on wide-open throttle: steady spin at full throttle is not taken as zero", () => {
+    // 4 s of steady running at 100 % throttle with a steady 6 % spin, then 1 s at 30 % throttle with none.
+    const n = 500;
+    const s = makeSeries({ mismatch: 0, n });
+    for (let i = 0; i < n; i++) {
+      const wide = i < 400;
+      s.channels.throttle![i] = wide ? 100 : 30;
+      s.channels.speed_rear![i] = 50 * (wide ? 1.06 : 1);
+    }
+    const cal = calibrateSlipZero(s);
+    // Only the part-throttle second qualifies: its ratio is 1 (definition), not the spinning 1.06.
+    expect(cal.applied).toBe(true);
+    expect(cal.ratio).toBeCloseTo(1, 6);
+    expect(driveSlip(s)[100]).toBeCloseTo(0.06, 5);
+  });
+
+  it("a ratio outside 0.9–1.1 is not applied and says why (a dead or wrong wheel sensor)", () => {
+    const s = makeSeries({ mismatch: 0 });
+    s.channels.speed_rear!.fill(5); // rear sensor reads a tenth of the front
+    const cal = calibrateSlipZero(s);
+    expect(cal.applied).toBe(false);
+    expect(cal.ratio).toBe(1);
+    expect(cal.outOfBoundsRatio).toBeCloseTo(0.1, 6);
+    expect(cal.reason).toMatch(/outside 0.9–1.1/);
+  });
+
   it("without calibration the mismatch shows as slip", () => {
     const slip = driveSlip(makeSeries({ mismatch: 0.02 }), { calibrate: false });
     expect(slip[100]).toBeCloseTo(0.02, 6);
@@ -88,20 +115,27 @@ describe("calibrateSlipZero and driveSlip", () => {
     expect(Number.isFinite(slip[11])).toBe(true);
   });
 
-  it("lean correction removes the slip that lean alone would show", () => {
-    // At 60° lean with r0 0.32 m and crown 0.1 m both tyres roll at 0.27 m (see above);
-    // if only the rear is corrected, a rear reading equal to the front reads as slip −(1 − 0.27/0.32).
+  it("lean correction of both tyres gives a true 0 % slip at 45° lean (r_eff = r0 − rc·(1 − cos φ) per tyre)", () => {
+    // Both wheels roll at the ground speed V without slip; each sensor counts revolutions
+    // ω = V / r_eff and reports ω·r0. Tyres: rear r0 0.32 m, crown 0.10 m; front r0 0.30 m,
+    // crown 0.06 m (geometry of the toroidal crown model, plain trigonometry):
+    // rear r_eff = 0.32 − 0.10·(1 − cos 45°) = 0.290711 m; front 0.30 − 0.06·(1 − cos 45°) = 0.282426 m.
+    const V = 40;
+    const c45 = Math.cos(Math.PI / 4);
+    const reffR = 0.32 - 0.1 * (1 - c45);
+    const reffF = 0.3 - 0.06 * (1 - c45);
+    expect(reffR).toBeCloseTo(0.290711, 6);
+    expect(reffF).toBeCloseTo(0.282426, 6);
     const s = makeSeries({ mismatch: 0 });
-    s.channels.lean_angle!.fill(60);
-    const slip = driveSlip(s, { zeroRatio: 1, lean: { rearRadiusM: 0.32, rearCrownRadiusM: 0.1 } });
-    expect(slip[100]).toBeCloseTo(0.27 / 0.32 - 1, 6);
-    const both = driveSlip(s, {
-      zeroRatio: 1,
-      lean: { rearRadiusM: 0.32, rearCrownRadiusM: 0.1, frontRadiusM: 0.3, frontCrownRadiusM: 0.09375 },
-    });
-    // Front 0.30 − 0.09375·0.5 = 0.253125 m = 0.84375·0.30, the rear's scale 0.27/0.32 = 0.84375
-    // → both readings shrink alike → slip 0 (arithmetic)
-    expect(both[100]).toBeCloseTo(0, 6);
+    s.channels.lean_angle!.fill(45);
+    s.channels.speed_front!.fill((V * 0.3) / reffF);
+    s.channels.speed_rear!.fill((V * 0.32) / reffR);
+    const lean = { rearRadiusM: 0.32, rearCrownRadiusM: 0.1, frontRadiusM: 0.3, frontCrownRadiusM: 0.06 };
+    expect(driveSlip(s, { zeroRatio: 1, lean })[100]).toBeCloseTo(0, 6);
+    // Uncorrected, the same true 0 % reads (r0R/reffR)/(r0F/reffF) − 1 = +3.6 %; correcting the rear
+    // alone would read reffF/r0F − 1 = −5.9 %, worse still (same geometry).
+    expect(driveSlip(s, { zeroRatio: 1 })[100]).toBeCloseTo((0.32 / reffR) / (0.3 / reffF) - 1, 5);
+    expect((0.32 / reffR) / (0.3 / reffF) - 1).toBeCloseTo(0.0363, 4);
   });
 });
 
@@ -122,6 +156,36 @@ describe("spinEvents", () => {
     const slip = driveSlip(s, { zeroRatio: 1 });
     expect(spinEvents(slip, s.channels.throttle, s.timeS, { minDurationS: 0.5 })).toHaveLength(0);
     expect(spinEvents(slip, s.channels.throttle, s.timeS, { minThrottlePct: 95 })).toHaveLength(0);
+  });
+});
+
+describe("spinEvents: one rule for the page and the finding, and the wheelie guard", () => {
+  it("by default a 0.2 s spin is too short: the minimum is the finding's own setting (0.3 s)", () => {
+    const s = makeSeries({ mismatch: 0 });
+    // Spin only 20 samples (0.2 s) of the 40 planted.
+    for (let i = 320; i < 340; i++) s.channels.speed_rear![i] = 50;
+    const slip = driveSlip(s, { zeroRatio: 1 });
+    expect(DEFAULT_THRESHOLDS.wheelSpinMinDurationS.value).toBe(0.3);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS)).toHaveLength(0);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, { minDurationS: 0.1 })).toHaveLength(1);
+  });
+
+  it("a front wheel slowing at 5 m/s² with the throttle open (in the air) is a wheelie, not spin", () => {
+    // Rear steady at 50 m/s; the lifted front slows 5 m/s² for 0.6 s from 3.0 s and lands at
+    // 3.6 s back at road speed: rear/front − 1 reaches 50/47 − 1 = 6.4 % (arithmetic), so the
+    // target is set to 3 % to make the slip count as spin without the guard.
+    const s = makeSeries({ mismatch: 0, n: 500 });
+    const f = s.channels.speed_front!;
+    for (let i = 0; i < 500; i++) {
+      s.channels.speed_rear![i] = 50;
+      s.channels.throttle![i] = 90;
+      const t = s.timeS[i];
+      f[i] = t >= 3 && t < 3.6 ? 50 - 5 * (t - 3) : 50;
+    }
+    const slip = driveSlip(s, { zeroRatio: 1 });
+    const opts = { targetSlip: 0.03, minDurationS: 0.1 };
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, opts).length).toBeGreaterThan(0);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, { ...opts, frontSpeedMs: f, wheelieDecelMs2: 3 })).toHaveLength(0);
   });
 });
 

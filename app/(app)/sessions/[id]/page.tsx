@@ -65,6 +65,16 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
         <>
           <SessionAnalysisLinks sessionId={s.id} />
           {trackPanel && <SessionTrack sessionId={s.id} panel={trackPanel} canEdit={canEditSetup} defaultName={`Track of ${s.title ?? `session ${s.id}`}`.slice(0, 120)} />}
+          {o.importNotes.length > 0 && (
+            <section className="card" aria-labelledby="import-notes" data-testid="import-notes">
+              <h2 id="import-notes" className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-300">Read from the file</h2>
+              <ul className="list-disc space-y-1 pl-5 text-sm text-ink-200">
+                {o.importNotes.map((n) => (
+                  <li key={n}>{n}</li>
+                ))}
+              </ul>
+            </section>
+          )}
           <Suspense fallback={block}>
             <SessionFindings sessionId={s.id} teamId={ctx.teamId} canAcknowledge={canAcknowledge} />
           </Suspense>

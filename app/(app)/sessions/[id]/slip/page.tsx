@@ -46,7 +46,7 @@ export default async function DriveSlipPage({ params, searchParams }: { params: 
                   rear/front ratio <span className="num">{a.zero.ratio.toFixed(4)}</span> on steady straights ({a.zero.sampleCount} samples) taken as zero slip.
                 </span>
               ) : (
-                <span className="text-ink-400">not enough steady straight running; raw ratio used.</span>
+                <span className="text-ink-400">{a.zero.reason ?? "not enough steady straight running"}; raw ratio used.</span>
               )}
             </p>
             <div className="flex flex-wrap items-center gap-3">
@@ -55,9 +55,9 @@ export default async function DriveSlipPage({ params, searchParams }: { params: 
                   Lean correction: {lean ? "on" : "off"}
                 </a>
               ) : (
-                <span className="text-xs text-ink-400">Lean correction needs a lean angle channel and the bike&apos;s rear circumference and tyre crown radius.</span>
+                <span className="text-xs text-ink-400">Lean correction needs a lean angle channel and the bike&apos;s front and rear circumferences and tyre crown radii.</span>
               )}
-              {a.lean.possible ? <span className="text-xs text-ink-400">Uses the bike&apos;s rear tyre crown radius {a.lean.crownRadiusMm} mm: r_eff = r₀ − r_c(1 − cos lean).</span> : null}
+              {a.lean.possible ? <span className="text-xs text-ink-400">Corrects both wheels with the bike&apos;s tyre crown radii (front {a.lean.frontCrownRadiusMm} mm, rear {a.lean.crownRadiusMm} mm): r_eff = r₀ − r_c(1 − cos lean).</span> : null}
             </div>
           </section>
 

@@ -76,8 +76,9 @@ describe("a log from a new logger, from upload to laps", () => {
   it("3. the Import profile is edited: renamed, the battery column left out", async () => {
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Import profiles" }).click();
     await page.waitForURL(/\/import-profiles$/);
-    const card = page.getByTestId("import-profile").filter({ hasText: "Fieldbox 12 (invented)" });
-    await card.waitFor();
+    const named = page.getByTestId("import-profile").filter({ hasText: "Fieldbox 12 (invented)" });
+    await named.waitFor();
+    const card = page.locator(`[data-testid="import-profile"][data-profile-id="${await named.getAttribute("data-profile-id")}"]`);
     expect(await card.textContent()).toMatch(/read 1 session/);
     await card.getByLabel("Name", { exact: true }).fill("Fieldbox 12");
     await card.getByLabel("Role of Batt").selectOption("ignore");

@@ -116,7 +116,7 @@ describe("a first upload from an unfamiliar logger", () => {
     const s = await RideSession.findByPk(sessionId);
     expect(s!.trackId).toBeNull();
     const panel = await getSessionTrackPanel(ctxOf(team, "engineer"), sessionId);
-    expect(panel.refused).toMatchObject({ trackId: demoTrackId, via: "session" });
+    expect(panel.refused).toMatchObject({ trackId: demoTrackId, via: "event" });
     // Demo circuit centre to the moved circuit (haversine, our own implementation checked against published values elsewhere).
     const expectedM = haversineM(CIRCUIT.origin.lat, CIRCUIT.origin.lon, FOREIGN_ORIGIN.lat, FOREIGN_ORIGIN.lon);
     expect(Math.abs(panel.refused!.distanceM - expectedM)).toBeLessThan(5_000);

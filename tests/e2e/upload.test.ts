@@ -127,6 +127,7 @@ describe("upload → mapping → ready", () => {
         expect(await dup.textContent()).toMatch(/This file was uploaded before/);
         await shot(page, "upload-duplicate-choice");
         await page.getByRole("button", { name: "Import it again as a new session" }).click();
+        await dup.waitFor({ state: "detached", timeout: 30_000 });
         await page.waitForURL(/\/sessions\/\d+(\/import)?$/, { timeout: 30_000 });
       }
     }

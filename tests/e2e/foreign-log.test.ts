@@ -84,6 +84,10 @@ describe("a log from a new logger, from upload to laps", () => {
     await card.getByLabel("Role of Batt").selectOption("ignore");
     await card.getByRole("button", { name: "Save profile" }).click();
     await card.getByText("Profile saved.").waitFor({ timeout: 30_000 });
+    // The form still shows what was saved (not reset to the first choices).
+    expect(await card.getByLabel("Role of Batt").inputValue()).toBe("ignore");
+    expect(await card.getByLabel("Role of Spd F").inputValue()).toBe("speed_front");
+    expect(await card.getByLabel("Time column is written in").inputValue()).toBe("milliseconds");
     await shot(page, "foreign-import-profiles");
   });
 

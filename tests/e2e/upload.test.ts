@@ -149,7 +149,10 @@ describe("upload → mapping → ready", () => {
 
     // Queued or being read first (unless the worker was quicker than the page), then ready.
     const status = page.getByTestId("session-status");
-    await status.waitFor();
+    await status.waitFor().catch(async (e) => {
+      await shot(page, "session-status-missing");
+      throw e;
+    });
     expect(["queued", "parsing", "ready"]).toContain(await status.getAttribute("data-status"));
     await shot(page, "session-reading");
     await page.locator('[data-testid="session-status"][data-status="ready"]').waitFor({ timeout: 120_000 });

@@ -1,6 +1,6 @@
 "use client";
 /** One Import profile: its columns (role, unit, calibration) editable, rename, delete, and the sessions it read. */
-import { useActionState, useState } from "react";
+import { startTransition, useActionState, useState } from "react";
 import Link from "next/link";
 import type { ImportProfileView } from "@/lib/data/import-profiles";
 import { saveImportProfileAction, deleteImportProfileAction } from "@/lib/actions/import-profiles";
@@ -53,7 +53,15 @@ export function ProfileCard({ profile }: { profile: ImportProfileView }) {
       </div>
       {deleted.message && <p role={deleted.ok ? "status" : "alert"} className={`text-sm ${deleted.ok ? "text-ok-400" : "text-alert-400"}`}>{deleted.message}</p>}
 
-      <form action={save} className="space-y-3">
+      {/* Submitted by hand, not as a form action: React resets a form after its action, and the controlled selects would show their first option. */}
+      <form
+        className="space-y-3"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const data = new FormData(e.currentTarget);
+          startTransition(() => save(data));
+        }}
+      >
         <input type="hidden" name="profileId" value={profile.id} />
         <input type="hidden" name="payload" value={payload} />
         <div className="flex flex-wrap gap-4">

@@ -1,6 +1,6 @@
 "use client";
 /** A held-back upload whose bytes match an earlier session: go there, or import this copy on purpose. */
-import { useActionState } from "react";
+import { useActionState, useEffect } from "react";
 import Link from "next/link";
 import { resolveDuplicateAction } from "@/lib/actions/imports";
 import type { FormState } from "@/lib/forms/session-form";
@@ -13,6 +13,10 @@ export interface DuplicateChoiceProps {
 
 export function DuplicateChoice({ sessionId, earlier, canEdit }: DuplicateChoiceProps) {
   const [state, action, pending] = useActionState<FormState, FormData>(resolveDuplicateAction, {});
+  // On success the action answers with where to go; a full load shows that page's current state.
+  useEffect(() => {
+    if (state.ok && state.message) window.location.assign(state.message);
+  }, [state]);
   const when = earlier.uploadedAt.slice(0, 16).replace("T", " ") + " UTC";
   return (
     <div className="rounded-lg border border-signal-500/50 bg-signal-500/5 p-4" data-testid="duplicate-choice" role="region" aria-label="Same file uploaded before">
@@ -30,7 +34,7 @@ export function DuplicateChoice({ sessionId, earlier, canEdit }: DuplicateChoice
       ) : (
         <p className="mt-2 text-sm text-ink-400">An engineer decides whether to import it again.</p>
       )}
-      {state.message && <p role="alert" className="mt-2 text-sm text-alert-400">{state.message}</p>}
+      {state.message && !state.ok && <p role="alert" className="mt-2 text-sm text-alert-400">{state.message}</p>}
     </div>
   );
 }

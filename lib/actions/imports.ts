@@ -89,5 +89,7 @@ export async function resolveDuplicateAction(_prev: FormState, form: FormData): 
     return failure(e);
   }
   revalidateSession(target.sessionId);
-  redirect(target.status === "mapping" ? `/sessions/${target.sessionId}/import` : `/sessions/${target.sessionId}`);
+  revalidateSession(sessionId);
+  // The browser loads the target afresh (it may be this very page, now with another status).
+  return { ok: true, message: target.status === "mapping" ? `/sessions/${target.sessionId}/import` : `/sessions/${target.sessionId}` };
 }

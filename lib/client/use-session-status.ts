@@ -1,7 +1,7 @@
 "use client";
 /** A session's import status from GET /api/sessions/:id, polled while it is still being read. */
 import { useState } from "react";
-import { useQuery } from "@tanstack/react-query";
+import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { queryKeys } from "./query-keys";
 
 export interface SessionStatus {
@@ -28,6 +28,13 @@ async function fetchSessionStatus(id: number): Promise<SessionStatus> {
 export function useSessionStatus(id: number, initial?: SessionStatus) {
   // The server read the initial status just now; stamp it once, not on every render.
   const [initialAt] = useState(() => (initial ? Date.now() : undefined));
+  const qc = useQueryClient();
+  // The page was just rendered on the server: its status is newer than anything cached from an
+  // earlier visit (a session mapped again was "ready" then and is "queued" now). Once, on mount.
+  useState(() => {
+    if (initial) qc.setQueryData(queryKeys.session(id), initial);
+    return null;
+  });
   return useQuery({
     queryKey: queryKeys.session(id),
     queryFn: () => fetchSessionStatus(id),

@@ -50,13 +50,14 @@ async function resolveTrack(sequelize: Sequelize, t: Transaction, session: RideS
     refused ??= { trackId: track.id, name: track.name, distanceM: Math.round(d), via };
     return false;
   };
+  const ev = session.eventId != null ? await RaceEvent.findOne({ where: { id: session.eventId, teamId: session.teamId }, transaction: t }) : null;
   if (session.trackId != null) {
     const own = await Track.findOne({ where: { id: session.trackId, teamId: session.teamId }, transaction: t });
-    if (own && accept(own, "session")) return { track: own, refused: null };
+    // The event's track, copied onto the session when its details were saved, is still the event's choice.
+    if (own && accept(own, ev?.trackId === own.id ? "event" : "session")) return { track: own, refused: null };
   }
-  if (session.eventId != null) {
-    const ev = await RaceEvent.findOne({ where: { id: session.eventId, teamId: session.teamId }, transaction: t });
-    if (ev?.trackId != null) {
+  if (ev) {
+    if (ev.trackId != null) {
       const viaEvent = await Track.findOne({ where: { id: ev.trackId, teamId: session.teamId }, transaction: t });
       if (viaEvent && accept(viaEvent, "event")) return { track: viaEvent, refused: null };
     }

@@ -69,9 +69,17 @@ function suggestGate(series: { timeS: ArrayLike<number> }, lat: ArrayLike<number
   const lengthM = d[d.length - 1];
   const step = Math.max(1, Math.ceil(lap.length / 600));
   const outline = lap.filter((_, i) => i % step === 0 || i === lap.length - 1);
-  const fromBeacon = beacon ? beaconGate(series.timeS, beacon, lat, lon) : null;
+  // A geometry that yields no usable gate (two points coinciding) is no suggestion, never a broken page.
+  const safe = <T,>(f: () => T): T | null => {
+    try {
+      return f();
+    } catch {
+      return null;
+    }
+  };
+  const fromBeacon = beacon ? safe(() => beaconGate(series.timeS, beacon, lat, lon)) : null;
   if (fromBeacon) return { source: "beacon", gate: fromBeacon.gate, straightM: null, pulses: fromBeacon.pulses, outline, lengthM };
-  const straight = longestStraightGate(lap);
+  const straight = safe(() => longestStraightGate(lap));
   if (!straight) return null;
   return { source: "straight", gate: straight.gate, straightM: straight.straightM, pulses: null, outline, lengthM };
 }

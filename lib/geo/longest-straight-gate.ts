@@ -83,7 +83,9 @@ export function longestStraightGate(
   if (best.lengthM < minStraightM) return null;
   const midD = best.from + best.lengthM / 2;
   const i = at(midD);
-  const j = at(s[i] + Math.max(5, Math.min(20, best.lengthM / 4)));
+  // The next point at least a few metres on (10 Hz fixes on a straight are ~8 m apart: never the same point).
+  let j = at(s[i] + Math.max(5, Math.min(20, best.lengthM / 4)));
+  if (j === i) j = (i + 1) % n;
   const p: LatLon = { lat: pts[i][0], lon: pts[i][1] };
   const q: LatLon = { lat: pts[j][0], lon: pts[j][1] };
   return { gate: gateAcrossPath(p, q, widthM), at: p, straightM: Math.round(best.lengthM), distanceM: ((midD % lapM) + lapM) % lapM };

@@ -17,6 +17,7 @@ import { importFormSchema, type ImportFormInput } from "@/lib/forms/session-form
 import { listImportProfiles, updateImportProfile, deleteImportProfile } from "@/lib/data/import-profiles";
 import { getSessionTrackPanel, changeSessionTrack, createTrackWithSuggestedGate, getHeldDuplicate } from "@/lib/data/session-track";
 import { resolveDuplicate } from "@/lib/data/imports";
+import { defaultCompareLaps } from "@/lib/data/compare-default";
 import { createSessionNote, getSessionNotes } from "@/lib/data/session-notes";
 import { acknowledgeFinding, listSessionFindings } from "@/lib/data/findings";
 import type { TeamContext } from "@/lib/auth/guard";
@@ -115,7 +116,7 @@ describe("a first upload from an unfamiliar logger", () => {
     const s = await RideSession.findByPk(sessionId);
     expect(s!.trackId).toBeNull();
     const panel = await getSessionTrackPanel(ctxOf(team, "engineer"), sessionId);
-    expect(panel.refused).toMatchObject({ trackId: demoTrackId, via: "session" });
+    expect(panel.refused).toMatchObject({ trackId: demoTrackId, via: "event" });
     // Demo circuit centre to the moved circuit (haversine, our own implementation checked against published values elsewhere).
     const expectedM = haversineM(CIRCUIT.origin.lat, CIRCUIT.origin.lon, FOREIGN_ORIGIN.lat, FOREIGN_ORIGIN.lon);
     expect(Math.abs(panel.refused!.distanceM - expectedM)).toBeLessThan(5_000);
@@ -228,5 +229,17 @@ describe("a first upload from an unfamiliar logger", () => {
     const changed = log.text.replace("# logger: Fieldbox 12 (invented)", "# logger: Fieldbox 12 (invented), unit 2");
     const next = await up.upload(new File([changed], "day2.csv", { type: "text/csv" }), team.members.engineer.cookie);
     expect((await RideSession.findByPk(next.sessionId))!.status).toBe("mapping");
+  });
+
+  it("Compare with no laps named opens on the latest ready session's two fastest flying laps", async () => {
+    const d = await defaultCompareLaps(ctxOf(team, "engineer"));
+    expect(d).not.toBeNull();
+    const latest = await RideSession.findOne({ where: { teamId: team.teamId, status: "ready" }, order: [["startedAt", "DESC"], ["id", "DESC"]] });
+    expect(d!.sessionId).toBe(latest!.id);
+    const flying = (await Lap.findAll({ where: { sessionId: d!.sessionId, isOutLap: false, isInLap: false, isInvalid: false, pitPass: false } })).sort((a, b) => a.lapTimeMs - b.lapTimeMs);
+    expect(flying.length).toBeGreaterThanOrEqual(2);
+    expect(d!.laps).toEqual([flying[0].number, flying[1].number]);
+    // A rider with no own or shared sessions gets nothing to open on.
+    expect(await defaultCompareLaps(ctxOf(team, "rider"))).toBeNull();
   });
 });

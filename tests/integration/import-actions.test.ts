@@ -121,7 +121,7 @@ describe("import screen → confirm → parse → session page", () => {
     ]);
     expect(s.columns[1].samples[0]).toBe("120.00");
     expect(s.columns[1].confidence).toBeGreaterThan(0.8);
-    expect(s.columns[1].reason).toMatch(/name matches/);
+    expect(s.columns[1].reason).toMatch(/name says wheel speed, front/);
   });
 
   it("riders and viewers cannot open it; another team's engineer gets 404", async () => {

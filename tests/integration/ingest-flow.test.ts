@@ -23,8 +23,9 @@ let up: UploadHarness;
 const sequelize = () => getSequelize();
 
 /** A small export: 100 Hz, speed as a known function of time, brake pressure in bar, GPS every 5th row. */
-function exportCsv(rows: number, opts: { badCellAtRow?: number; extraHeader?: string } = {}): string {
-  const lines = ["# logger: bench unit 3", "# rider: test rider", `Time [s],Front wheel speed [km/h],Front brake [bar],GPS speed [km/h]${opts.extraHeader ?? ""}`];
+function exportCsv(rows: number, opts: { badCellAtRow?: number; extraHeader?: string; run?: number } = {}): string {
+  // `run` makes otherwise equal exports differ by a metadata line: the same bytes twice are held back as a duplicate.
+  const lines = ["# logger: bench unit 3", "# rider: test rider", ...(opts.run !== undefined ? [`# run: ${opts.run}`] : []), `Time [s],Front wheel speed [km/h],Front brake [bar],GPS speed [km/h]${opts.extraHeader ?? ""}`];
   for (let i = 0; i < rows; i++) {
     const t = i / 100;
     const v = 100 + 50 * Math.sin(t);
@@ -172,7 +173,7 @@ describe("worker processes", () => {
 
   it("two workers at once never process the same job", async () => {
     const ids: number[] = [];
-    for (let i = 0; i < 6; i++) ids.push((await up.upload(new File([exportCsv(3000)], `batch-${i}.csv`), team.members.engineer.cookie)).sessionId);
+    for (let i = 0; i < 6; i++) ids.push((await up.upload(new File([exportCsv(3000, { run: i })], `batch-${i}.csv`), team.members.engineer.cookie)).sessionId);
     const w1 = startWorker();
     const w2 = startWorker();
     try {

@@ -4,6 +4,7 @@ import { cookies } from "next/headers";
 import { redirect } from "next/navigation";
 import { pageTeam } from "@/lib/auth/page-guard";
 import { listRecentSessions } from "@/lib/data/sessions";
+import { defaultCompareLaps } from "@/lib/data/compare-default";
 import { UNIT_COOKIE, parseUnitSystem } from "@/lib/units/unit-system";
 import { CompareView } from "@/components/compare/compare-view";
 
@@ -16,6 +17,11 @@ export default async function ComparePage({ searchParams }: { searchParams: Prom
   if (sp.lap) {
     const ticked = Array.isArray(sp.lap) ? sp.lap : [sp.lap];
     redirect(`/compare?laps=${ticked.map((l) => encodeURIComponent(l).replace(/%3A/gi, ":")).join(",")}`);
+  }
+  // Opened with no view in the URL (from the menu): start on the latest ready session's two fastest flying laps.
+  if (Object.keys(sp).length === 0) {
+    const first = await defaultCompareLaps(ctx);
+    if (first) redirect(`/compare?laps=${first.laps.map((n) => `${first.sessionId}:${n}`).join(",")}`);
   }
   const sessions = (await listRecentSessions(ctx, 100)).map((s) => ({ id: s.id, title: s.title, status: s.status, riderName: s.riderName, startedAt: s.startedAt }));
   const units = parseUnitSystem((await cookies()).get(UNIT_COOKIE)?.value);

@@ -21,7 +21,7 @@ export default async function ImportProfilesPage() {
       {profiles.length === 0 ? (
         <p className="card text-sm text-ink-400">No Import profiles yet. One is saved the first time you map the columns of a CSV upload.</p>
       ) : (
-        profiles.map((p) => <ProfileCard key={`${p.id}-${p.updatedAt}`} profile={p} />)
+        profiles.map((p) => <ProfileCard key={p.id} profile={p} />)
       )}
     </div>
   );

@@ -47,6 +47,14 @@ describe("longestStraightGate", () => {
     flying.forEach((l, k) => expect(Math.abs(l.lapTimeMs - truthFlying[k].lapTimeMs)).toBeLessThan(100));
   });
 
+  it("works on sparse points too: every third outline point (~9 m apart, as 10 Hz fixes at speed)", () => {
+    const sparse = lapOutline(lat, lon)!.filter((_, i) => i % 3 === 0);
+    sparse.push(sparse[0]);
+    const g = longestStraightGate(sparse)!;
+    expect(g).not.toBeNull();
+    expect(offTrackPoint(g.at, TRACK_LENGTH_M - 70)).toBeLessThan(30);
+  });
+
   it("finds no straight on a circle of 150 m radius", () => {
     const pts: [number, number][] = Array.from({ length: 400 }, (_, i) => {
       const a = (2 * Math.PI * i) / 400;

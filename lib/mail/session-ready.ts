@@ -4,14 +4,12 @@
  * engineers get the figures and the findings count. Each person can turn it off on their settings
  * page. It never throws: a mail service that is down must not fail or delay an import's outcome.
  */
-import { createElement } from "react";
 import { QueryTypes, type Sequelize } from "sequelize";
 import { config } from "../config";
 import { lapFigures, type RecordLap } from "../record/lap-figures";
 import { formatLapTime } from "../export/format-lap-time";
 import { storedJsonParse } from "../analysis/stored-json";
-import { SessionReadyMail, type SessionReadyMailProps } from "../../components/mail/session-ready-mail";
-import { deliverMail } from "./deliver";
+import type { SessionReadyMailProps } from "../../components/mail/session-ready-mail";
 
 interface SessionRow {
   id: number;
@@ -44,6 +42,11 @@ function briefLines(raw: string | undefined): string[] {
   } catch {
     return [];
   }
+}
+
+async function loadMailer() {
+  const [{ createElement }, { SessionReadyMail }, { deliverMail }] = await Promise.all([import("react"), import("../../components/mail/session-ready-mail"), import("./deliver")]);
+  return (to: string, subject: string, props: SessionReadyMailProps) => deliverMail(to, subject, createElement(SessionReadyMail, props));
 }
 
 export async function notifySessionReady(sequelize: Sequelize, sessionId: number): Promise<SessionReadyOutcome> {
@@ -85,6 +88,9 @@ export async function notifySessionReady(sequelize: Sequelize, sessionId: number
       findingsCount: Number(findings[0]?.n ?? 0), settingsUrl: `${base}/settings`,
     };
     const lines = briefLines(parts[0]?.data);
+    // Loaded only when there is mail to send: the e-mail components are large, and the ingest worker
+    // process starts without them.
+    const send = people.some((p) => Number(p.wants) && !Number(p.already)) ? await loadMailer() : null;
     for (const p of people) {
       if (!Number(p.wants) || Number(p.already)) {
         out.skipped.push(p.email);
@@ -93,7 +99,7 @@ export async function notifySessionReady(sequelize: Sequelize, sessionId: number
       try {
         const url = p.audience === "rider" ? `${base}/sessions/${s.id}/brief` : `${base}/sessions/${s.id}`;
         const subject = p.audience === "rider" ? `${title} is ready: your brief` : `${title} is ready: ${common.findingsCount} ${common.findingsCount === 1 ? "finding" : "findings"}`;
-        await deliverMail(p.email, subject, createElement(SessionReadyMail, { ...common, audience: p.audience, url, briefLines: p.audience === "rider" ? lines : [] }));
+        await send!(p.email, subject, { ...common, audience: p.audience, url, briefLines: p.audience === "rider" ? lines : [] });
         await sequelize.query("INSERT IGNORE INTO mail_sent (kind, ref_id, user_id) VALUES ('session_ready', ?, ?)", { replacements: [s.id, p.userId], type: QueryTypes.INSERT });
         out.sent.push({ to: p.email, audience: p.audience });
       } catch (e) {

@@ -179,6 +179,9 @@ describe("printed setup sheet", () => {
     const text = execFileSync("pdftotext", ["-layout", pdf, "-"]).toString();
     for (const s of ["TEAM", DEMO_TEAM.name, "Bike 27", user("rider").name, "2031-07-12", "Setup v1", "CAUTION.", "Shock rebound", "10 clicks out"]) expect(text).toContain(s);
     expect(text).not.toContain("Print or save as PDF");
+    // Paper, not the app's dark background: the page's corner (inside the margin) renders white.
+    const corner = await page.evaluate(() => getComputedStyle(document.documentElement).colorScheme);
+    expect(corner).toBe("light");
     execFileSync("pdftoppm", ["-png", "-r", "60", "-f", "1", "-l", "1", pdf, path.join(SHOTS, "print-setup-pdf")]);
     await page.context().close();
   });

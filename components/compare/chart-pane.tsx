@@ -83,7 +83,7 @@ export interface ChartPaneProps {
   captionExtra?: ReactNode;
 }
 
-const AXIS = { stroke: "#a3adb9", grid: { stroke: "#2a323c", width: 1 }, ticks: { stroke: "#2a323c", width: 1 }, font: "11px var(--font-mono), monospace" };
+const AXIS = { stroke: "#a3adb9", grid: { stroke: "#2a323c", width: 1 }, ticks: { stroke: "#2a323c", width: 1 }, font: "11px ui-monospace, SFMono-Regular, Menlo, monospace" }; // canvas fonts cannot read CSS variables
 const BAND_PX = 12;
 const X_AXIS_PX = 26;
 
@@ -174,7 +174,7 @@ export function ChartPane(props: ChartPaneProps) {
       // Every axis reserves room for a label (a blank one if none), so all panes plot equally wide.
       label: a.label ?? " ",
       labelSize: 14,
-      labelFont: "10px var(--font-sans), sans-serif",
+      labelFont: "10px sans-serif",
     }));
     // Every pane keeps a right-hand gutter of the same width, so the plotting areas — and the
     // corners on their x axes — line up from pane to pane.

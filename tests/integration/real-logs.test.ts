@@ -12,7 +12,7 @@ import zlib from "node:zlib";
 import { getSequelize } from "@/models/db";
 import { initModels, RideSession, Finding } from "@/models";
 import { claimJob, finishJob, failJob } from "@/lib/data/jobs";
-import { confirmMapping } from "@/lib/data/imports";
+import { confirmMapping, heldDuplicate, resolveDuplicate } from "@/lib/data/imports";
 import { listChannels } from "@/lib/data/samples";
 import { loadSessionSeries } from "@/lib/data/session-series";
 import { runIngestJob } from "@/workers/ingest/run-ingest-job";
@@ -47,6 +47,11 @@ interface Outcome {
 async function importFile(name: string, bytes: Buffer, map?: (m: Mapping) => Mapping): Promise<Outcome> {
   const { sessionId } = await up.upload(new File([new Uint8Array(bytes)], name), team.members.engineer.cookie);
   let s = await RideSession.findByPk(sessionId);
+  // The "…again" checks read a file the loop above already imported: import it again on purpose.
+  if (s && heldDuplicate(s)) {
+    await resolveDuplicate(getSequelize(), team.teamId, sessionId, "import");
+    s = await RideSession.findByPk(sessionId);
+  }
   if (s?.status === "mapping") {
     const m = s.mapping as Mapping;
     await confirmMapping(getSequelize(), team.teamId, sessionId, map ? map(m) : m, `Real ${name}`);

@@ -1,6 +1,6 @@
 "use client";
 /** A held-back upload whose bytes match an earlier session: go there, or import this copy on purpose. */
-import { useActionState, useEffect } from "react";
+import { useActionState } from "react";
 import Link from "next/link";
 import { resolveDuplicateAction } from "@/lib/actions/imports";
 import type { FormState } from "@/lib/forms/session-form";
@@ -13,10 +13,7 @@ export interface DuplicateChoiceProps {
 
 export function DuplicateChoice({ sessionId, earlier, canEdit }: DuplicateChoiceProps) {
   const [state, action, pending] = useActionState<FormState, FormData>(resolveDuplicateAction, {});
-  // On success the action answers with where to go; a full load shows that page's current state.
-  useEffect(() => {
-    if (state.ok && state.message) window.location.assign(state.message);
-  }, [state]);
+  // On success the action navigates to the session to open; only a refusal comes back here.
   const when = earlier.uploadedAt.slice(0, 16).replace("T", " ") + " UTC";
   return (
     <div className="rounded-lg border border-signal-500/50 bg-signal-500/5 p-4" data-testid="duplicate-choice" role="region" aria-label="Same file uploaded before">

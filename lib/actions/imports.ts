@@ -89,7 +89,7 @@ export async function resolveDuplicateAction(_prev: FormState, form: FormData): 
     return failure(e);
   }
   revalidateSession(target.sessionId);
-  revalidateSession(sessionId);
-  // The browser loads the target afresh (it may be this very page, now with another status).
-  return { ok: true, message: target.status === "mapping" ? `/sessions/${target.sessionId}/import` : `/sessions/${target.sessionId}` };
+  // Navigate from the action: with "existing" this page's session no longer exists, so re-rendering
+  // it in the action's answer would end in a 404 instead of the earlier session.
+  redirect(target.status === "mapping" ? `/sessions/${target.sessionId}/import` : `/sessions/${target.sessionId}`);
 }

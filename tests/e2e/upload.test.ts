@@ -129,7 +129,7 @@ describe("upload → mapping → ready", () => {
         await shot(page, "upload-duplicate-choice");
         // Go to the session the seed read from these bytes (importing it again is covered in tests/integration/foreign-log.test.ts).
         const held = page.url();
-        await dup.getByRole("link").first().click();
+        await dup.getByRole("button", { name: "Go to the existing session" }).click();
         await page.waitForURL((u) => u.toString() !== held && /\/sessions\/\d+$/.test(u.pathname), { timeout: 30_000, waitUntil: "commit" });
       }
     }

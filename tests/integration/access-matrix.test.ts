@@ -12,7 +12,7 @@ import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { QueryTypes } from "sequelize";
 import { SMTPServer } from "smtp-server";
-import { initModels, Bike, Engine, Finding, Lap, Note, RaceEvent, RideSession, Rider, Track } from "@/models";
+import { initModels, Bike, Engine, Finding, ImportProfile, Lap, Note, RaceEvent, RideSession, Rider, Track } from "@/models";
 import { getSequelize } from "@/models/db";
 import { config } from "@/lib/config";
 import { createTeamWithRoles, createUser, testAuth, req, params, type TestTeam } from "./helpers/teams";
@@ -53,6 +53,7 @@ let b: TestTeam;
 let riderOwn: number;
 let riderOther: number;
 let aBike: number;
+let aBike2: number;
 let aEngine: number;
 let aTrack: number;
 let aEvent: number;
@@ -129,6 +130,8 @@ interface Row {
   /** Who is allowed ("ok"); everyone else must be refused. `passed` = access granted, refused for the state or input (shown). */
   allow: Partial<Record<Actor, "ok" | "passed">>;
   call(actor: Actor): Promise<Outcome>;
+  /** Reads only (or sends mail only): an allowed call leaves every table as it was. GET handlers are reads; any other allowed call must change a table. */
+  reads?: true;
 }
 
 const ALL_MEMBERS = { owner: "ok", engineer: "ok", "rider-own": "ok", "rider-other": "ok", viewer: "ok" } as const;
@@ -163,6 +166,7 @@ const validImport = (title: string) => ({
 });
 
 let n = 0;
+let mailToggle = 0; // alternates "session ready" on and off, so even the same person's second save changes their row
 const uniq = (s: string) => `${s} ${++n}`;
 
 const ROWS: Row[] = [
@@ -210,12 +214,89 @@ const ROWS: Row[] = [
       method: "POST", headers: { "content-type": "application/json", origin: config.appUrl }, body: JSON.stringify({ organizationId: a.teamId, data: { name: uniq("Matrix A") } }),
     }),
   },
+  {
+    key: "api/team/export/route.ts GET",
+    // The whole team as a zip: the owner only (the other team's owner gets their own team's, never A's).
+    allow: { owner: "ok", outsider: "ok" },
+    call: async (x) => {
+      const mod = (await routeMod("api/team/export/route.ts")) as Record<string, (r: Request, c: { params: Promise<unknown> }) => Promise<Response>>;
+      let exported = "";
+      const res = await measured(async () => {
+        const r = await mod.GET(req("/api/team/export", cookieOf(x)), params({}));
+        // Read the streamed zip to its end, so the export has finished before the checksum after it.
+        if (r.status === 200) exported = Buffer.from(await r.arrayBuffer()).subarray(0, 2).toString("latin1");
+        return r;
+      });
+      const out = await routeOutcome(res);
+      return out === "ok" && exported !== "PK" ? (`passed:200 not a zip (${JSON.stringify(exported)})` as Outcome) : out;
+    },
+  },
 
   // Server actions (lib/actions).
   { key: "bikes.ts createBikeAction", allow: { ...EDITORS, outsider: "ok" }, call: (x) => act("bikes.ts", "createBikeAction", x, {}, form({ name: uniq("Bike") })) },
   { key: "bikes.ts updateBikeAction", allow: EDITORS, call: (x) => act("bikes.ts", "updateBikeAction", x, {}, form({ bikeId: aBike, name: uniq("A bike") })) },
   { key: "bikes.ts createEngineAction", allow: EDITORS, call: (x) => act("bikes.ts", "createEngineAction", x, {}, form({ serial: uniq("E"), bikeId: aBike })) },
   { key: "bikes.ts updateEngineAction", allow: EDITORS, call: (x) => act("bikes.ts", "updateEngineAction", x, {}, form({ engineId: aEngine, serial: uniq("A-E"), bikeId: aBike })) },
+  {
+    key: "engine-history.ts moveEngineAction",
+    allow: EDITORS,
+    call: async (x) => {
+      const e = await Engine.create({ teamId: a.teamId, bikeId: aBike, serial: uniq("M-MOVE"), rebuildIntervalH: 10, rebuildIntervalKm: null, notes: null });
+      return act("engine-history.ts", "moveEngineAction", x, {}, form({ engineId: e.id, toBikeId: aBike2, onDate: "2031-05-18", note: "Swapped for the race" }));
+    },
+  },
+  {
+    key: "engine-history.ts recordRebuildAction",
+    allow: EDITORS,
+    call: async (x) => {
+      const e = await Engine.create({ teamId: a.teamId, bikeId: aBike, serial: uniq("M-REB"), rebuildIntervalH: 10, rebuildIntervalKm: null, notes: null });
+      return act("engine-history.ts", "recordRebuildAction", x, {}, form({ engineId: e.id, onDate: "2031-05-19", note: "Top end refreshed" }));
+    },
+  },
+  {
+    key: "event-report.ts sendEventReportAction",
+    // Mailed to team A's owner (who wants reports by default); no table changes when it is sent.
+    allow: EDITORS,
+    reads: true,
+    call: (x) => act("event-report.ts", "sendEventReportAction", x, {}, form({ eventId: aEvent })),
+  },
+  {
+    key: "import-profiles.ts saveImportProfileAction",
+    allow: EDITORS,
+    call: async (x) => {
+      const p = await matrixProfile();
+      const payload = { name: uniq("Renamed profile"), timeFormat: "seconds", columns: [{ index: 0, role: "time", unit: "s", scale: 1, offset: 0 }, { index: 1, role: "speed_front", unit: "km/h", scale: 1.02, offset: 0 }] };
+      return act("import-profiles.ts", "saveImportProfileAction", x, {}, form({ profileId: p, payload: JSON.stringify(payload) }));
+    },
+  },
+  { key: "import-profiles.ts deleteImportProfileAction", allow: EDITORS, call: async (x) => act("import-profiles.ts", "deleteImportProfileAction", x, {}, form({ profileId: await matrixProfile() })) },
+  {
+    key: "imports.ts resolveDuplicateAction",
+    // "Keep the earlier one": the held-back copy is dropped (uploads are the owner's and engineers').
+    allow: EDITORS,
+    call: async (x) => {
+      const earlier = await sessionFor(x);
+      const held = await newSession({ status: "uploaded", title: "Matrix copy", summary: { duplicateOf: { sessionId: earlier, title: "Matrix", uploadedAt: "2031-05-17T09:00:00Z" } } });
+      return act("imports.ts", "resolveDuplicateAction", x, {}, form({ sessionId: held.id, choice: "existing" }));
+    },
+  },
+  {
+    key: "mail-preferences.ts saveMailPreferencesAction",
+    // Each person's own settings: every signed-in member, the other team's owner included (their own row).
+    allow: { ...ALL_MEMBERS, outsider: "ok" },
+    call: (x) => act("mail-preferences.ts", "saveMailPreferencesAction", x, {}, form(++mailToggle % 2 ? { sessionReady: "on", eventReport: "on" } : { eventReport: "on" })),
+  },
+  {
+    key: "session-track.ts changeSessionTrackAction",
+    allow: EDITORS,
+    call: async (x) => act("session-track.ts", "changeSessionTrackAction", x, {}, form({ sessionId: await sessionFor(x), trackId: aTrack })),
+  },
+  {
+    key: "session-track.ts confirmSuggestedGateAction",
+    // This session has no GPS to draw a track from: access passes, the content is refused (422).
+    allow: { owner: "passed", engineer: "passed" },
+    call: async (x) => act("session-track.ts", "confirmSuggestedGateAction", x, {}, form({ sessionId: await sessionFor(x), name: uniq("Suggested track") })),
+  },
   { key: "events.ts createEventAction", allow: { ...EDITORS, outsider: "ok" }, call: (x) => act("events.ts", "createEventAction", x, {}, form({ name: uniq("Round"), startsOn: "2031-05-17", endsOn: "2031-05-18", trackId: "" })) },
   { key: "events.ts updateEventAction", allow: EDITORS, call: (x) => act("events.ts", "updateEventAction", x, {}, form({ eventId: aEvent, name: uniq("A round"), startsOn: "2031-05-17", endsOn: "2031-05-18", trackId: "" })) },
   {
@@ -287,6 +368,7 @@ const ROWS: Row[] = [
   {
     key: "team.ts switchTeam",
     allow: ALL_MEMBERS,
+    reads: true, // it changes only the sign-in bookkeeping (the active team), left out of the checksums
     call: async (x) => {
       const out = await act("team.ts", "switchTeam", x, a.teamId);
       await restoreActiveTeams();
@@ -304,6 +386,15 @@ const ROWS: Row[] = [
   },
 ];
 
+/** A fresh Import profile of team A for a two-column header (time, front wheel speed). */
+async function matrixProfile(): Promise<number> {
+  const p = await ImportProfile.create({
+    teamId: a.teamId, name: uniq("Matrix profile"), headerSignature: `matrix${String(++n).padStart(58, "0")}`, format: "csv",
+    mapping: { timeFormat: "seconds", columns: [{ index: 0, name: "t", role: "time", unit: "s", scale: 1, offset: 0 }, { index: 1, name: "v_front", role: "speed_front", unit: "km/h", scale: 1, offset: 0 }] },
+  });
+  return p.id;
+}
+
 async function freshMember(): Promise<string> {
   const u = await createUser("matrix-member");
   const m = await testAuth().api.addMember({ body: { userId: u.userId, role: "viewer", organizationId: a.teamId } });
@@ -315,6 +406,8 @@ async function restoreActiveTeams() {
     await getSequelize().query("UPDATE session SET activeOrganizationId = ? WHERE userId IN (?)", { replacements: [t.teamId, ids], type: QueryTypes.UPDATE });
   }
 }
+
+const readsOnly = (row: Row) => row.reads ?? row.key.endsWith(" GET");
 
 function discovered(): string[] {
   const out: string[] = [];
@@ -358,6 +451,7 @@ beforeAll(async () => {
   riderOwn = (await Rider.create({ teamId: a.teamId, name: "Matrix rider", raceNumber: "21", userId: a.members.rider.userId })).id;
   riderOther = (await Rider.create({ teamId: a.teamId, name: "Matrix team-mate", raceNumber: "22", userId: null })).id;
   aBike = (await Bike.create({ teamId: a.teamId, name: "Matrix bike", className: null, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null, sprocketFront: null, sprocketRear: null, revCeilingRpm: 14000, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null })).id;
+  aBike2 = (await Bike.create({ teamId: a.teamId, name: "Matrix spare bike", className: null, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null, sprocketFront: null, sprocketRear: null, revCeilingRpm: 14000, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null })).id;
   aEngine = (await Engine.create({ teamId: a.teamId, bikeId: aBike, serial: "M-E1", rebuildIntervalH: 10, rebuildIntervalKm: null, notes: null })).id;
   aTrack = (await Track.create({ teamId: a.teamId, name: "Matrix track", centerLat: null, centerLon: null, lengthM: null, gates: null, corners: null, outline: null, pitSpeedLimitKmh: null, thresholds: null })).id;
   aEvent = (await RaceEvent.create({ teamId: a.teamId, trackId: null, name: "Matrix round", startsOn: "2031-05-17", endsOn: "2031-05-18" })).id;
@@ -386,6 +480,7 @@ describe("access matrix", () => {
         const got = outcome === "ok" ? "ok" : outcome === "denied" ? "denied" : "passed";
         if (want !== got) failures.push(`${row.key} as ${actor}: expected ${want}, got ${outcome}`);
         if (got === "ok" && around.before && around.before !== around.after) allowedChanges++;
+        if (got === "ok" && around.before && (around.before !== around.after) === readsOnly(row)) failures.push(`${row.key} as ${actor}: allowed, but ${readsOnly(row) ? "a read changed data" : "nothing changed"}`);
         if (got === "denied") {
           if (!around.before) failures.push(`${row.key} as ${actor}: no checksum taken`);
           else if (around.before !== around.after) failures.push(`${row.key} as ${actor}: refused, but the data changed`);

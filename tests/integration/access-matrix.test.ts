@@ -12,12 +12,16 @@ import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { QueryTypes } from "sequelize";
 import { SMTPServer } from "smtp-server";
-import { initModels, Bike, Engine, Finding, ImportProfile, Lap, Note, RaceEvent, RideSession, Rider, Track } from "@/models";
+import { initModels, Bike, Engine, Finding, ImportProfile, Lap, LogFile, Note, RaceEvent, RideSession, Rider, Track } from "@/models";
 import { getSequelize } from "@/models/db";
 import { config } from "@/lib/config";
 import { createTeamWithRoles, createUser, testAuth, req, params, type TestTeam } from "./helpers/teams";
 import { makeUploadthingToken, startUploadFake, type UploadFake } from "../../workers/services/upload-fake";
 import os from "node:os";
+import { runIngestJob } from "@/workers/ingest/run-ingest-job";
+import { prepareImport } from "@/lib/data/imports";
+import { generateSession } from "@/sample-logs/generate-session";
+import { gpxChunks } from "@/sample-logs/write-formats";
 
 const request = vi.hoisted(() => ({ cookie: "" }));
 class Redirected extends Error {
@@ -58,6 +62,8 @@ let aEngine: number;
 let aTrack: number;
 let aEvent: number;
 let smtp: SMTPServer;
+/** A ready session of team A read from a GPX file of the sample generator (GPS positions, no track yet). */
+let aGpsSession: number;
 
 function cookieOf(actor: Actor): string {
   switch (actor) {
@@ -293,9 +299,12 @@ const ROWS: Row[] = [
   },
   {
     key: "session-track.ts confirmSuggestedGateAction",
-    // This session has no GPS to draw a track from: access passes, the content is refused (422).
-    allow: { owner: "passed", engineer: "passed" },
-    call: async (x) => act("session-track.ts", "confirmSuggestedGateAction", x, {}, form({ sessionId: await sessionFor(x), name: uniq("Suggested track") })),
+    // The GPS session, off any track again before each call, the rider's own for "rider-own".
+    allow: EDITORS,
+    call: async (x) => {
+      await RideSession.update({ trackId: null, riderId: x === "rider-own" ? riderOwn : riderOther }, { where: { id: aGpsSession } });
+      return act("session-track.ts", "confirmSuggestedGateAction", x, {}, form({ sessionId: aGpsSession, name: uniq("Suggested track") }));
+    },
   },
   { key: "events.ts createEventAction", allow: { ...EDITORS, outsider: "ok" }, call: (x) => act("events.ts", "createEventAction", x, {}, form({ name: uniq("Round"), startsOn: "2031-05-17", endsOn: "2031-05-18", trackId: "" })) },
   { key: "events.ts updateEventAction", allow: EDITORS, call: (x) => act("events.ts", "updateEventAction", x, {}, form({ eventId: aEvent, name: uniq("A round"), startsOn: "2031-05-17", endsOn: "2031-05-18", trackId: "" })) },
@@ -439,7 +448,8 @@ beforeAll(async () => {
   smtp = new SMTPServer({ authOptional: true, disabledCommands: ["STARTTLS"], onData(stream, _s, done) { stream.resume(); stream.on("end", () => done()); } });
   await new Promise<void>((ok) => smtp.listen(0, "127.0.0.1", ok));
   config.smtp.port = (smtp.server.address() as AddressInfo).port;
-  uploadFake = await startUploadFake({ port: 0, storageDir: fs.mkdtempSync(path.join(os.tmpdir(), "lapbench-matrix-")), apiKey: UPLOAD_KEY });
+  const storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "lapbench-matrix-"));
+  uploadFake = await startUploadFake({ port: 0, storageDir, apiKey: UPLOAD_KEY });
   Object.assign(process.env, {
     UPLOADTHING_TOKEN: makeUploadthingToken({ apiKey: UPLOAD_KEY, appId: "lapbench-matrix" }),
     UPLOADTHING_INGEST_URL: uploadFake.url,
@@ -454,6 +464,16 @@ beforeAll(async () => {
   aBike2 = (await Bike.create({ teamId: a.teamId, name: "Matrix spare bike", className: null, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null, sprocketFront: null, sprocketRear: null, revCeilingRpm: 14000, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null })).id;
   aEngine = (await Engine.create({ teamId: a.teamId, bikeId: aBike, serial: "M-E1", rebuildIntervalH: 10, rebuildIntervalKm: null, notes: null })).id;
   aTrack = (await Track.create({ teamId: a.teamId, name: "Matrix track", centerLat: null, centerLon: null, lengthM: null, gates: null, corners: null, outline: null, pitSpeedLimitKmh: null, thresholds: null })).id;
+  // A GPX log of our own generator, stored on the upload fake and read by the real ingest job.
+  const gpx = Buffer.from([...gpxChunks(generateSession({ flyingLaps: 2 }))].join(""), "utf8");
+  fs.writeFileSync(path.join(storageDir, "matrix-gpx"), gpx);
+  fs.writeFileSync(path.join(storageDir, "matrix-gpx.json"), JSON.stringify({ key: "matrix-gpx", name: "matrix.gpx", size: gpx.length, type: "application/gpx+xml", customId: null, fileHash: "", uploadedAt: 0 }));
+  const gpxLog = await LogFile.create({ teamId: a.teamId, uploadKey: "matrix-gpx", name: "matrix.gpx", bytes: gpx.length, sha256: null, contentType: "application/gpx+xml", url: `${uploadFake.url}/f/matrix-gpx`, uploadedBy: a.members.engineer.userId });
+  aGpsSession = (await newSession({ status: "uploaded", logFileId: gpxLog.id, title: "Matrix GPS" })).id;
+  expect((await prepareImport(getSequelize(), aGpsSession)).status).toBe("queued");
+  const ingested = await runIngestJob(getSequelize(), aGpsSession);
+  expect(ingested, (await RideSession.findByPk(aGpsSession))?.statusReason ?? "").toBe("ready");
+  await getSequelize().query("UPDATE jobs SET state = 'done' WHERE session_id = ? AND state = 'queued'", { replacements: [aGpsSession], type: QueryTypes.UPDATE });
   aEvent = (await RaceEvent.create({ teamId: a.teamId, trackId: null, name: "Matrix round", startsOn: "2031-05-17", endsOn: "2031-05-18" })).id;
 });
 

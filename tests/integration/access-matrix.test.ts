@@ -65,6 +65,8 @@ let aEvent: number;
 let smtp: SMTPServer;
 /** A ready session of team A read from a GPX file of the sample generator (GPS positions, no track yet). */
 let aGpsSession: number;
+/** Where the upload fake keeps its files (the matrix stores its own logs there). */
+let storageDir: string;
 
 function cookieOf(actor: Actor): string {
   switch (actor) {
@@ -80,6 +82,21 @@ function newSession(extra: Partial<Parameters<typeof RideSession.create>[0]> = {
     teamId: a.teamId, eventId: null, bikeId: null, engineId: null, riderId: riderOther, trackId: null, logFileId: null, importProfileId: null, title: "Matrix",
     startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null, createdBy: a.members.engineer.userId, status: "ready", ...extra,
   });
+}
+/** A CSV log (time, front wheel speed) on the upload fake, uploaded anew for each call. */
+function storeLog(key: string, name: string, type: string, bytes: Buffer) {
+  fs.writeFileSync(path.join(storageDir, key), bytes);
+  fs.writeFileSync(path.join(storageDir, `${key}.json`), JSON.stringify({ key, name, size: bytes.length, type, customId: null, fileHash: "", uploadedAt: 0 }));
+  return LogFile.create({ teamId: a.teamId, uploadKey: key, name, bytes: bytes.length, sha256: null, contentType: type, url: `${uploadFake.url}/f/${key}`, uploadedBy: a.members.engineer.userId });
+}
+/** A fresh CSV session of team A waiting on the mapping screen (the rider's own for "rider-own"). */
+async function csvSessionFor(actor: Actor): Promise<number> {
+  const rows = Array.from({ length: 200 }, (_, i) => `${(i * 0.01).toFixed(2)},${(100 + i * 0.1).toFixed(1)}`);
+  const log = await storeLog(`matrix-csv-${++n}`, "matrix.csv", "text/csv", Buffer.from(`Time [s],Front wheel speed [km/h]\n${rows.join("\n")}\n`, "utf8"));
+  const s = await newSession({ status: "uploaded", logFileId: log.id, riderId: actor === "rider-own" ? riderOwn : riderOther });
+  // forceMapping: the first confirmation saves a profile for this header, which would otherwise queue the next copy at once.
+  expect((await prepareImport(getSequelize(), s.id, { forceMapping: true })).status).toBe("mapping");
+  return s.id;
 }
 /** The GPS session, ridden by the rider for "rider-own" and by the team-mate for everyone else, and its first lap. */
 async function gpsSessionFor(actor: Actor): Promise<{ id: string; lap: string }> {
@@ -324,9 +341,9 @@ const ROWS: Row[] = [
   },
   {
     key: "imports.ts confirmImportAction",
-    // The session is not waiting for a column mapping: access passes, the state refuses.
-    allow: { owner: "passed", engineer: "passed" },
-    call: async (x) => act("imports.ts", "confirmImportAction", x, await sessionFor(x), validImport("Matrix import")),
+    // A CSV session waiting on the mapping screen; confirming queues it to be read.
+    allow: EDITORS,
+    call: async (x) => act("imports.ts", "confirmImportAction", x, await csvSessionFor(x), validImport("Matrix import")),
   },
   {
     key: "imports.ts saveSessionDetailsAction",
@@ -352,8 +369,8 @@ const ROWS: Row[] = [
   { key: "tracks.ts createTrackAction", allow: { ...EDITORS, outsider: "ok" }, call: (x) => act("tracks.ts", "createTrackAction", x, {}, form({ name: uniq("Track") })) },
   {
     key: "tracks.ts saveTrackAction",
-    allow: { owner: "passed", engineer: "passed" }, // an empty editor payload: access passes, the content is refused (422)
-    call: (x) => act("tracks.ts", "saveTrackAction", x, {}, form({ trackId: aTrack, payload: "{}" })),
+    allow: EDITORS,
+    call: (x) => act("tracks.ts", "saveTrackAction", x, {}, form({ trackId: aTrack, payload: JSON.stringify({ name: uniq("Matrix track"), gates: { startFinish: null, sectors: [], pitEntry: null, pitExit: null }, corners: [], pitSpeedLimitKmh: 60 }) })),
   },
   { key: "team.ts inviteMember", allow: { owner: "ok", outsider: "ok" }, call: (x) => act("team.ts", "inviteMember", x, {}, form({ email: `${uniq("invitee").replace(" ", "-")}@example.com`, role: "viewer" })) },
   {
@@ -454,7 +471,7 @@ beforeAll(async () => {
   smtp = new SMTPServer({ authOptional: true, disabledCommands: ["STARTTLS"], onData(stream, _s, done) { stream.resume(); stream.on("end", () => done()); } });
   await new Promise<void>((ok) => smtp.listen(0, "127.0.0.1", ok));
   config.smtp.port = (smtp.server.address() as AddressInfo).port;
-  const storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "lapbench-matrix-"));
+  storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "lapbench-matrix-"));
   uploadFake = await startUploadFake({ port: 0, storageDir, apiKey: UPLOAD_KEY });
   Object.assign(process.env, {
     UPLOADTHING_TOKEN: makeUploadthingToken({ apiKey: UPLOAD_KEY, appId: "lapbench-matrix" }),
@@ -472,9 +489,7 @@ beforeAll(async () => {
   aTrack = (await Track.create({ teamId: a.teamId, name: "Matrix track", centerLat: null, centerLon: null, lengthM: null, gates: null, corners: null, outline: null, pitSpeedLimitKmh: null, thresholds: null })).id;
   // A GPX log of our own generator, stored on the upload fake and read by the real ingest job.
   const gpx = Buffer.from([...gpxChunks(generateSession({ flyingLaps: 2 }))].join(""), "utf8");
-  fs.writeFileSync(path.join(storageDir, "matrix-gpx"), gpx);
-  fs.writeFileSync(path.join(storageDir, "matrix-gpx.json"), JSON.stringify({ key: "matrix-gpx", name: "matrix.gpx", size: gpx.length, type: "application/gpx+xml", customId: null, fileHash: "", uploadedAt: 0 }));
-  const gpxLog = await LogFile.create({ teamId: a.teamId, uploadKey: "matrix-gpx", name: "matrix.gpx", bytes: gpx.length, sha256: null, contentType: "application/gpx+xml", url: `${uploadFake.url}/f/matrix-gpx`, uploadedBy: a.members.engineer.userId });
+  const gpxLog = await storeLog("matrix-gpx", "matrix.gpx", "application/gpx+xml", gpx);
   aGpsSession = (await newSession({ status: "uploaded", logFileId: gpxLog.id, title: "Matrix GPS" })).id;
   expect((await prepareImport(getSequelize(), aGpsSession)).status).toBe("queued");
   const ingested = await runIngestJob(getSequelize(), aGpsSession);

@@ -12,12 +12,17 @@ import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { QueryTypes } from "sequelize";
 import { SMTPServer } from "smtp-server";
-import { initModels, Bike, Engine, Finding, Lap, Note, RaceEvent, RideSession, Rider, Track } from "@/models";
+import { initModels, Bike, Engine, Finding, ImportProfile, Lap, LogFile, Note, RaceEvent, RideSession, Rider, Track } from "@/models";
 import { getSequelize } from "@/models/db";
 import { config } from "@/lib/config";
 import { createTeamWithRoles, createUser, testAuth, req, params, type TestTeam } from "./helpers/teams";
 import { makeUploadthingToken, startUploadFake, type UploadFake } from "../../workers/services/upload-fake";
 import os from "node:os";
+import { runIngestJob } from "@/workers/ingest/run-ingest-job";
+import { prepareImport } from "@/lib/data/imports";
+import { createTrackWithSuggestedGate } from "@/lib/data/session-track";
+import { generateSession } from "@/sample-logs/generate-session";
+import { gpxChunks } from "@/sample-logs/write-formats";
 
 const request = vi.hoisted(() => ({ cookie: "" }));
 class Redirected extends Error {
@@ -53,10 +58,15 @@ let b: TestTeam;
 let riderOwn: number;
 let riderOther: number;
 let aBike: number;
+let aBike2: number;
 let aEngine: number;
 let aTrack: number;
 let aEvent: number;
 let smtp: SMTPServer;
+/** A ready session of team A read from a GPX file of the sample generator (GPS positions, no track yet). */
+let aGpsSession: number;
+/** Where the upload fake keeps its files (the matrix stores its own logs there). */
+let storageDir: string;
 
 function cookieOf(actor: Actor): string {
   switch (actor) {
@@ -72,6 +82,27 @@ function newSession(extra: Partial<Parameters<typeof RideSession.create>[0]> = {
     teamId: a.teamId, eventId: null, bikeId: null, engineId: null, riderId: riderOther, trackId: null, logFileId: null, importProfileId: null, title: "Matrix",
     startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null, createdBy: a.members.engineer.userId, status: "ready", ...extra,
   });
+}
+/** A CSV log (time, front wheel speed) on the upload fake, uploaded anew for each call. */
+function storeLog(key: string, name: string, type: string, bytes: Buffer) {
+  fs.writeFileSync(path.join(storageDir, key), bytes);
+  fs.writeFileSync(path.join(storageDir, `${key}.json`), JSON.stringify({ key, name, size: bytes.length, type, customId: null, fileHash: "", uploadedAt: 0 }));
+  return LogFile.create({ teamId: a.teamId, uploadKey: key, name, bytes: bytes.length, sha256: null, contentType: type, url: `${uploadFake.url}/f/${key}`, uploadedBy: a.members.engineer.userId });
+}
+/** A fresh CSV session of team A waiting on the mapping screen (the rider's own for "rider-own"). */
+async function csvSessionFor(actor: Actor): Promise<number> {
+  const rows = Array.from({ length: 200 }, (_, i) => `${(i * 0.01).toFixed(2)},${(100 + i * 0.1).toFixed(1)}`);
+  const log = await storeLog(`matrix-csv-${++n}`, "matrix.csv", "text/csv", Buffer.from(`Time [s],Front wheel speed [km/h]\n${rows.join("\n")}\n`, "utf8"));
+  const s = await newSession({ status: "uploaded", logFileId: log.id, riderId: actor === "rider-own" ? riderOwn : riderOther });
+  // forceMapping: the first confirmation saves a profile for this header, which would otherwise queue the next copy at once.
+  expect((await prepareImport(getSequelize(), s.id, { forceMapping: true })).status).toBe("mapping");
+  return s.id;
+}
+/** The GPS session, ridden by the rider for "rider-own" and by the team-mate for everyone else, and its first lap. */
+async function gpsSessionFor(actor: Actor): Promise<{ id: string; lap: string }> {
+  await RideSession.update({ riderId: actor === "rider-own" ? riderOwn : riderOther }, { where: { id: aGpsSession } });
+  const lap = await Lap.findOne({ where: { sessionId: aGpsSession }, order: [["number", "ASC"]] });
+  return { id: String(aGpsSession), lap: String(lap!.number) };
 }
 /** A fresh session of team A: the rider's own for "rider-own", another rider's for everyone else. */
 async function sessionFor(actor: Actor): Promise<number> {
@@ -129,6 +160,8 @@ interface Row {
   /** Who is allowed ("ok"); everyone else must be refused. `passed` = access granted, refused for the state or input (shown). */
   allow: Partial<Record<Actor, "ok" | "passed">>;
   call(actor: Actor): Promise<Outcome>;
+  /** Reads only (or sends mail only): an allowed call leaves every table as it was. GET handlers are reads; any other allowed call must change a table. */
+  reads?: true;
 }
 
 const ALL_MEMBERS = { owner: "ok", engineer: "ok", "rider-own": "ok", "rider-other": "ok", viewer: "ok" } as const;
@@ -163,6 +196,7 @@ const validImport = (title: string) => ({
 });
 
 let n = 0;
+let mailToggle = 0; // alternates "session ready" on and off, so even the same person's second save changes their row
 const uniq = (s: string) => `${s} ${++n}`;
 
 const ROWS: Row[] = [
@@ -172,16 +206,15 @@ const ROWS: Row[] = [
   { key: "api/team/route.ts GET", allow: { ...ALL_MEMBERS, outsider: "ok" }, call: (x) => callRoute("api/team/route.ts", "GET", "/api/team", x, {}) },
   {
     key: "api/series/route.ts GET",
-    // The session has a lap but no channel data: access passes, then the series is refused for its content.
-    allow: { owner: "passed", engineer: "passed", "rider-own": "passed", viewer: "passed" },
-    call: async (x) => callRoute("api/series/route.ts", "GET", `/api/series?laps=${await sessionFor(x)}:1&roles=speed_front&x=distance&width=800`, x, {}),
+    allow: { owner: "ok", engineer: "ok", "rider-own": "ok", viewer: "ok" },
+    call: async (x) => { const g = await gpsSessionFor(x); return callRoute("api/series/route.ts", "GET", `/api/series?laps=${g.id}:${g.lap}&roles=gps_speed&x=distance&width=800`, x, {}); },
   },
   { key: "api/sessions/[id]/laps/route.ts GET", allow: { owner: "ok", engineer: "ok", "rider-own": "ok", viewer: "ok" }, call: async (x) => { const id = String(await sessionFor(x)); return callRoute("api/sessions/[id]/laps/route.ts", "GET", `/api/sessions/${id}/laps`, x, { id }); } },
   { key: "api/sessions/[id]/laps.csv/route.ts GET", allow: { owner: "ok", engineer: "ok", "rider-own": "ok", viewer: "ok" }, call: async (x) => { const id = String(await sessionFor(x)); return callRoute("api/sessions/[id]/laps.csv/route.ts", "GET", `/api/sessions/${id}/laps.csv`, x, { id }); } },
   {
     key: "api/sessions/[id]/laps/[lap]/gpx/route.ts GET",
-    allow: { owner: "passed", engineer: "passed", "rider-own": "passed", viewer: "passed" }, // no GPS in this session: refused for its content
-    call: async (x) => { const id = String(await sessionFor(x)); return callRoute("api/sessions/[id]/laps/[lap]/gpx/route.ts", "GET", `/api/sessions/${id}/laps/1/gpx`, x, { id, lap: "1" }); },
+    allow: { owner: "ok", engineer: "ok", "rider-own": "ok", viewer: "ok" },
+    call: async (x) => { const g = await gpsSessionFor(x); return callRoute("api/sessions/[id]/laps/[lap]/gpx/route.ts", "GET", `/api/sessions/${g.id}/laps/${g.lap}/gpx`, x, g); },
   },
   {
     key: "api/uploadthing/route.ts POST",
@@ -210,12 +243,92 @@ const ROWS: Row[] = [
       method: "POST", headers: { "content-type": "application/json", origin: config.appUrl }, body: JSON.stringify({ organizationId: a.teamId, data: { name: uniq("Matrix A") } }),
     }),
   },
+  {
+    key: "api/team/export/route.ts GET",
+    // The whole team as a zip: the owner only (the other team's owner gets their own team's, never A's).
+    allow: { owner: "ok", outsider: "ok" },
+    call: async (x) => {
+      const mod = (await routeMod("api/team/export/route.ts")) as Record<string, (r: Request, c: { params: Promise<unknown> }) => Promise<Response>>;
+      let exported = "";
+      const res = await measured(async () => {
+        const r = await mod.GET(req("/api/team/export", cookieOf(x)), params({}));
+        // Read the streamed zip to its end, so the export has finished before the checksum after it.
+        if (r.status === 200) exported = Buffer.from(await r.arrayBuffer()).subarray(0, 2).toString("latin1");
+        return r;
+      });
+      const out = await routeOutcome(res);
+      return out === "ok" && exported !== "PK" ? (`passed:200 not a zip (${JSON.stringify(exported)})` as Outcome) : out;
+    },
+  },
 
   // Server actions (lib/actions).
   { key: "bikes.ts createBikeAction", allow: { ...EDITORS, outsider: "ok" }, call: (x) => act("bikes.ts", "createBikeAction", x, {}, form({ name: uniq("Bike") })) },
   { key: "bikes.ts updateBikeAction", allow: EDITORS, call: (x) => act("bikes.ts", "updateBikeAction", x, {}, form({ bikeId: aBike, name: uniq("A bike") })) },
   { key: "bikes.ts createEngineAction", allow: EDITORS, call: (x) => act("bikes.ts", "createEngineAction", x, {}, form({ serial: uniq("E"), bikeId: aBike })) },
   { key: "bikes.ts updateEngineAction", allow: EDITORS, call: (x) => act("bikes.ts", "updateEngineAction", x, {}, form({ engineId: aEngine, serial: uniq("A-E"), bikeId: aBike })) },
+  {
+    key: "engine-history.ts moveEngineAction",
+    allow: EDITORS,
+    call: async (x) => {
+      const e = await Engine.create({ teamId: a.teamId, bikeId: aBike, serial: uniq("M-MOVE"), rebuildIntervalH: 10, rebuildIntervalKm: null, notes: null });
+      return act("engine-history.ts", "moveEngineAction", x, {}, form({ engineId: e.id, toBikeId: aBike2, onDate: "2031-05-18", note: "Swapped for the race" }));
+    },
+  },
+  {
+    key: "engine-history.ts recordRebuildAction",
+    allow: EDITORS,
+    call: async (x) => {
+      const e = await Engine.create({ teamId: a.teamId, bikeId: aBike, serial: uniq("M-REB"), rebuildIntervalH: 10, rebuildIntervalKm: null, notes: null });
+      return act("engine-history.ts", "recordRebuildAction", x, {}, form({ engineId: e.id, onDate: "2031-05-19", note: "Top end refreshed" }));
+    },
+  },
+  {
+    key: "event-report.ts sendEventReportAction",
+    // Mailed to team A's owner (who wants reports by default); no table changes when it is sent.
+    allow: EDITORS,
+    reads: true,
+    call: (x) => act("event-report.ts", "sendEventReportAction", x, {}, form({ eventId: aEvent })),
+  },
+  {
+    key: "import-profiles.ts saveImportProfileAction",
+    allow: EDITORS,
+    call: async (x) => {
+      const p = await matrixProfile();
+      const payload = { name: uniq("Renamed profile"), timeFormat: "seconds", columns: [{ index: 0, role: "time", unit: "s", scale: 1, offset: 0 }, { index: 1, role: "speed_front", unit: "km/h", scale: 1.02, offset: 0 }] };
+      return act("import-profiles.ts", "saveImportProfileAction", x, {}, form({ profileId: p, payload: JSON.stringify(payload) }));
+    },
+  },
+  { key: "import-profiles.ts deleteImportProfileAction", allow: EDITORS, call: async (x) => act("import-profiles.ts", "deleteImportProfileAction", x, {}, form({ profileId: await matrixProfile() })) },
+  {
+    key: "imports.ts resolveDuplicateAction",
+    // "Keep the earlier one": the held-back copy is dropped (uploads are the owner's and engineers').
+    allow: EDITORS,
+    call: async (x) => {
+      const earlier = await sessionFor(x);
+      const held = await newSession({ status: "uploaded", title: "Matrix copy", summary: { duplicateOf: { sessionId: earlier, title: "Matrix", uploadedAt: "2031-05-17T09:00:00Z" } } });
+      return act("imports.ts", "resolveDuplicateAction", x, {}, form({ sessionId: held.id, choice: "existing" }));
+    },
+  },
+  {
+    key: "mail-preferences.ts saveMailPreferencesAction",
+    // Each person's own settings: every signed-in member, the other team's owner included (their own row).
+    allow: { ...ALL_MEMBERS, outsider: "ok" },
+    call: (x) => act("mail-preferences.ts", "saveMailPreferencesAction", x, {}, form(++mailToggle % 2 ? { sessionReady: "on", eventReport: "on" } : { eventReport: "on" })),
+  },
+  {
+    key: "session-track.ts changeSessionTrackAction",
+    allow: EDITORS,
+    call: async (x) => act("session-track.ts", "changeSessionTrackAction", x, {}, form({ sessionId: await sessionFor(x), trackId: aTrack })),
+  },
+  {
+    key: "session-track.ts confirmSuggestedGateAction",
+    // The GPS session, off any track again before each call, the rider's own for "rider-own".
+    allow: EDITORS,
+    call: async (x) => {
+      await RideSession.update({ trackId: null, riderId: x === "rider-own" ? riderOwn : riderOther }, { where: { id: aGpsSession } });
+      return act("session-track.ts", "confirmSuggestedGateAction", x, {}, form({ sessionId: aGpsSession, name: uniq("Suggested track") }));
+    },
+  },
   { key: "events.ts createEventAction", allow: { ...EDITORS, outsider: "ok" }, call: (x) => act("events.ts", "createEventAction", x, {}, form({ name: uniq("Round"), startsOn: "2031-05-17", endsOn: "2031-05-18", trackId: "" })) },
   { key: "events.ts updateEventAction", allow: EDITORS, call: (x) => act("events.ts", "updateEventAction", x, {}, form({ eventId: aEvent, name: uniq("A round"), startsOn: "2031-05-17", endsOn: "2031-05-18", trackId: "" })) },
   {
@@ -228,9 +341,9 @@ const ROWS: Row[] = [
   },
   {
     key: "imports.ts confirmImportAction",
-    // The session is not waiting for a column mapping: access passes, the state refuses.
-    allow: { owner: "passed", engineer: "passed" },
-    call: async (x) => act("imports.ts", "confirmImportAction", x, await sessionFor(x), validImport("Matrix import")),
+    // A CSV session waiting on the mapping screen; confirming queues it to be read.
+    allow: EDITORS,
+    call: async (x) => act("imports.ts", "confirmImportAction", x, await csvSessionFor(x), validImport("Matrix import")),
   },
   {
     key: "imports.ts saveSessionDetailsAction",
@@ -256,8 +369,8 @@ const ROWS: Row[] = [
   { key: "tracks.ts createTrackAction", allow: { ...EDITORS, outsider: "ok" }, call: (x) => act("tracks.ts", "createTrackAction", x, {}, form({ name: uniq("Track") })) },
   {
     key: "tracks.ts saveTrackAction",
-    allow: { owner: "passed", engineer: "passed" }, // an empty editor payload: access passes, the content is refused (422)
-    call: (x) => act("tracks.ts", "saveTrackAction", x, {}, form({ trackId: aTrack, payload: "{}" })),
+    allow: EDITORS,
+    call: (x) => act("tracks.ts", "saveTrackAction", x, {}, form({ trackId: aTrack, payload: JSON.stringify({ name: uniq("Matrix track"), gates: { startFinish: null, sectors: [], pitEntry: null, pitExit: null }, corners: [], pitSpeedLimitKmh: 60 }) })),
   },
   { key: "team.ts inviteMember", allow: { owner: "ok", outsider: "ok" }, call: (x) => act("team.ts", "inviteMember", x, {}, form({ email: `${uniq("invitee").replace(" ", "-")}@example.com`, role: "viewer" })) },
   {
@@ -287,6 +400,7 @@ const ROWS: Row[] = [
   {
     key: "team.ts switchTeam",
     allow: ALL_MEMBERS,
+    reads: true, // it changes only the sign-in bookkeeping (the active team), left out of the checksums
     call: async (x) => {
       const out = await act("team.ts", "switchTeam", x, a.teamId);
       await restoreActiveTeams();
@@ -304,6 +418,15 @@ const ROWS: Row[] = [
   },
 ];
 
+/** A fresh Import profile of team A for a two-column header (time, front wheel speed). */
+async function matrixProfile(): Promise<number> {
+  const p = await ImportProfile.create({
+    teamId: a.teamId, name: uniq("Matrix profile"), headerSignature: `matrix${String(++n).padStart(58, "0")}`, format: "csv",
+    mapping: { timeFormat: "seconds", columns: [{ index: 0, name: "t", role: "time", unit: "s", scale: 1, offset: 0 }, { index: 1, name: "v_front", role: "speed_front", unit: "km/h", scale: 1, offset: 0 }] },
+  });
+  return p.id;
+}
+
 async function freshMember(): Promise<string> {
   const u = await createUser("matrix-member");
   const m = await testAuth().api.addMember({ body: { userId: u.userId, role: "viewer", organizationId: a.teamId } });
@@ -315,6 +438,8 @@ async function restoreActiveTeams() {
     await getSequelize().query("UPDATE session SET activeOrganizationId = ? WHERE userId IN (?)", { replacements: [t.teamId, ids], type: QueryTypes.UPDATE });
   }
 }
+
+const readsOnly = (row: Row) => row.reads ?? row.key.endsWith(" GET");
 
 function discovered(): string[] {
   const out: string[] = [];
@@ -346,7 +471,8 @@ beforeAll(async () => {
   smtp = new SMTPServer({ authOptional: true, disabledCommands: ["STARTTLS"], onData(stream, _s, done) { stream.resume(); stream.on("end", () => done()); } });
   await new Promise<void>((ok) => smtp.listen(0, "127.0.0.1", ok));
   config.smtp.port = (smtp.server.address() as AddressInfo).port;
-  uploadFake = await startUploadFake({ port: 0, storageDir: fs.mkdtempSync(path.join(os.tmpdir(), "lapbench-matrix-")), apiKey: UPLOAD_KEY });
+  storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "lapbench-matrix-"));
+  uploadFake = await startUploadFake({ port: 0, storageDir, apiKey: UPLOAD_KEY });
   Object.assign(process.env, {
     UPLOADTHING_TOKEN: makeUploadthingToken({ apiKey: UPLOAD_KEY, appId: "lapbench-matrix" }),
     UPLOADTHING_INGEST_URL: uploadFake.url,
@@ -358,8 +484,20 @@ beforeAll(async () => {
   riderOwn = (await Rider.create({ teamId: a.teamId, name: "Matrix rider", raceNumber: "21", userId: a.members.rider.userId })).id;
   riderOther = (await Rider.create({ teamId: a.teamId, name: "Matrix team-mate", raceNumber: "22", userId: null })).id;
   aBike = (await Bike.create({ teamId: a.teamId, name: "Matrix bike", className: null, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null, sprocketFront: null, sprocketRear: null, revCeilingRpm: 14000, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null })).id;
+  aBike2 = (await Bike.create({ teamId: a.teamId, name: "Matrix spare bike", className: null, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null, sprocketFront: null, sprocketRear: null, revCeilingRpm: 14000, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null })).id;
   aEngine = (await Engine.create({ teamId: a.teamId, bikeId: aBike, serial: "M-E1", rebuildIntervalH: 10, rebuildIntervalKm: null, notes: null })).id;
   aTrack = (await Track.create({ teamId: a.teamId, name: "Matrix track", centerLat: null, centerLon: null, lengthM: null, gates: null, corners: null, outline: null, pitSpeedLimitKmh: null, thresholds: null })).id;
+  // A GPX log of our own generator, stored on the upload fake and read by the real ingest job.
+  const gpx = Buffer.from([...gpxChunks(generateSession({ flyingLaps: 2 }))].join(""), "utf8");
+  const gpxLog = await storeLog("matrix-gpx", "matrix.gpx", "application/gpx+xml", gpx);
+  aGpsSession = (await newSession({ status: "uploaded", logFileId: gpxLog.id, title: "Matrix GPS" })).id;
+  expect((await prepareImport(getSequelize(), aGpsSession)).status).toBe("queued");
+  const ingested = await runIngestJob(getSequelize(), aGpsSession);
+  expect(ingested, (await RideSession.findByPk(aGpsSession))?.statusReason ?? "").toBe("ready");
+  await getSequelize().query("UPDATE jobs SET state = 'done' WHERE session_id = ? AND state = 'queued'", { replacements: [aGpsSession], type: QueryTypes.UPDATE });
+  // Split into laps on a track made from its own GPS, so its laps have series and positions to serve.
+  const m = a.members.engineer;
+  await createTrackWithSuggestedGate({ teamId: a.teamId, teamName: "Matrix A", teamSlug: "matrix-a", role: "engineer", userId: m.userId, userName: "engineer", email: m.email, memberships: [] }, aGpsSession, "Matrix GPS circuit");
   aEvent = (await RaceEvent.create({ teamId: a.teamId, trackId: null, name: "Matrix round", startsOn: "2031-05-17", endsOn: "2031-05-18" })).id;
 });
 
@@ -386,6 +524,7 @@ describe("access matrix", () => {
         const got = outcome === "ok" ? "ok" : outcome === "denied" ? "denied" : "passed";
         if (want !== got) failures.push(`${row.key} as ${actor}: expected ${want}, got ${outcome}`);
         if (got === "ok" && around.before && around.before !== around.after) allowedChanges++;
+        if (got === "ok" && around.before && (around.before !== around.after) === readsOnly(row)) failures.push(`${row.key} as ${actor}: allowed, but ${readsOnly(row) ? "a read changed data" : "nothing changed"}`);
         if (got === "denied") {
           if (!around.before) failures.push(`${row.key} as ${actor}: no checksum taken`);
           else if (around.before !== around.after) failures.push(`${row.key} as ${actor}: refused, but the data changed`);

@@ -1,11 +1,11 @@
 /**
  * The role guard over every API route that exists, against the real MariaDB: no session → 401,
- * each role gets what PRODUCT.md §7 allows, and another team's resources answer 404.
+ * each role gets what the role rules (lib/auth/permissions.ts) allow, and another team's resources answer 404.
  */
 import { describe, it, expect, beforeAll } from "vitest";
 import fs from "node:fs";
 import path from "node:path";
-import { initModels, RideSession, Rider } from "@/models";
+import { initModels, Lap, RideSession, Rider } from "@/models";
 import { createTeamWithRoles, req, params, type TestTeam } from "./helpers/teams";
 import * as sessionsRoute from "@/app/api/sessions/route";
 import * as sessionRoute from "@/app/api/sessions/[id]/route";
@@ -32,6 +32,8 @@ beforeAll(async () => {
   const otherA = await Rider.create({ teamId: a.teamId, name: "Other rider", raceNumber: "8", userId: null });
   aSessionRider = (await RideSession.create({ teamId: a.teamId, riderId: riderA.id, title: "A FP1", createdBy: a.members.engineer.userId, logFileId: null, eventId: null, bikeId: null, engineId: null, trackId: null, importProfileId: null, startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null })).id;
   aSessionOther = (await RideSession.create({ teamId: a.teamId, riderId: otherA.id, title: "A FP1 other", createdBy: a.members.engineer.userId, logFileId: null, eventId: null, bikeId: null, engineId: null, trackId: null, importProfileId: null, startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null })).id;
+  // Lap 1 exists, so a 404 for team B below comes from the team check, not a missing lap.
+  await Lap.create({ sessionId: aSessionRider, number: 1, startTimeS: 0, endTimeS: 90, lapTimeMs: 90_000, distanceM: 3000, sectorTimesMs: null, topSpeedMs: null, stats: null });
   bSession = (await RideSession.create({ teamId: b.teamId, riderId: null, title: "B FP1", createdBy: b.members.engineer.userId, logFileId: null, eventId: null, bikeId: null, engineId: null, trackId: null, importProfileId: null, startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null })).id;
 });
 
@@ -83,7 +85,7 @@ describe("every API route refuses a request without a session", () => {
   });
 });
 
-describe("roles see what PRODUCT.md §7 allows", () => {
+describe("roles see what the role rules allow", () => {
   it.each(ROLES)("%s reads the team with their role", async (role) => {
     const res = await teamApiRoute.GET(req("/api/team", a.members[role].cookie), params({}));
     expect(res.status).toBe(200);
@@ -115,6 +117,17 @@ describe("roles see what PRODUCT.md §7 allows", () => {
     expect(res.status).toBe(200);
     await RideSession.update({ sharedWithRiders: false }, { where: { id: aSessionOther } });
   });
+
+  it("only the owner exports the whole team: a zip for the owner, 403 for every other role", async () => {
+    const res = await teamExportRoute.GET(req("/api/team/export", a.members.owner.cookie), params({}));
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toBe("application/zip");
+    expect(Buffer.from(await res.arrayBuffer()).subarray(0, 4).toString("latin1")).toBe("PK\x03\x04"); // a ZIP local file header (APPNOTE.TXT 4.3.7)
+    for (const role of ["engineer", "rider", "viewer"] as const) {
+      const refused = await teamExportRoute.GET(req("/api/team/export", a.members[role].cookie), params({}));
+      expect(refused.status, role).toBe(403);
+    }
+  });
 });
 
 describe("team isolation", () => {
@@ -124,16 +137,24 @@ describe("team isolation", () => {
     expect(JSON.stringify(await res.json())).not.toContain("A FP1");
   });
 
-  it.each(ROLES)("%s of team B gets 404 for team A's laps, lap table and lap GPX", async (role) => {
+  it.each(ROLES)("%s of team B gets 404 for team A's laps, lap table, lap GPX and lap series", async (role) => {
     const cookie = b.members[role].cookie;
     const id = String(aSessionRider);
     for (const res of [
       await lapsRoute.GET(req(`/api/sessions/${id}/laps`, cookie), params({ id })),
       await lapsCsvRoute.GET(req(`/api/sessions/${id}/laps.csv`, cookie), params({ id })),
       await lapGpxRoute.GET(req(`/api/sessions/${id}/laps/1/gpx`, cookie), params({ id, lap: "1" })),
+      await seriesRoute.GET(req(`/api/series?laps=${id}:1&roles=speed_front&x=distance&width=800`, cookie), params({})),
     ]) {
       expect(res.status).toBe(404);
     }
+  });
+
+  it("the same lap routes answer team A's own owner (the 404s above are the team check)", async () => {
+    const id = String(aSessionRider);
+    const cookie = a.members.owner.cookie;
+    expect((await lapsRoute.GET(req(`/api/sessions/${id}/laps`, cookie), params({ id }))).status).toBe(200);
+    expect((await lapsCsvRoute.GET(req(`/api/sessions/${id}/laps.csv`, cookie), params({ id }))).status).toBe(200);
   });
 
   it("a non-numeric or unknown id is a 404, not an error", async () => {

@@ -101,6 +101,12 @@ describe("two web apps and two workers on one database", () => {
     const ids = [first.sessionId, ...uploads.map((u) => u.sessionId)];
     expect(new Set(ids).size).toBe(ids.length);
     await waitFor(async () => (await RideSession.count({ where: { id: ids, status: "ready" } })) === ids.length, 180_000, `${ids.length} sessions ready`);
+    // A worker marks its job done just after the session's transaction commits: wait for that too.
+    await waitFor(
+      async () => (await s.query<{ n: number }>(`SELECT COUNT(*) AS n FROM jobs WHERE state = 'done' AND session_id IN (${ids.join(",")})`, { type: QueryTypes.SELECT }))[0]!.n == ids.length,
+      60_000,
+      `${ids.length} jobs done`,
+    );
 
     const jobs = await s.query<{ session_id: number; attempts: number; state: string }>(`SELECT session_id, attempts, state FROM jobs WHERE session_id IN (${ids.join(",")})`, { type: QueryTypes.SELECT });
     expect(jobs).toHaveLength(ids.length);

@@ -13,11 +13,17 @@ const nextConfig: NextConfig = {
   // Parallel end-to-end runs on one machine build into their own folders.
   distDir: process.env.LAPBENCH_NEXT_DIST ?? ".next",
   experimental: { serverActions: { bodySizeLimit: "2mb" } },
-  // CSP (no 'unsafe-eval' in production), no framing, nosniff, Referrer-Policy, HSTS under https.
-  // Read when the app is built: `npm start` builds with the upload service's address in the env.
+  // No framing, nosniff, Referrer-Policy, HSTS under https. The CSP (no 'unsafe-eval' in production)
+  // names the upload service's address, which is known only when the server runs: proxy.ts sets it.
   async headers() {
     const dev = process.env.NODE_ENV === "development";
-    return [{ source: "/:path*", headers: securityHeaders({ dev, appUrl, uploadOrigins: uploadOriginsFromEnv(process.env) }) }];
+    const all = securityHeaders({ dev, appUrl, uploadOrigins: uploadOriginsFromEnv(process.env) });
+    const csp = all.filter((h) => h.key === "Content-Security-Policy");
+    // API answers are never rendered as pages; their CSP (frame-ancestors, no scripts) is set here.
+    return [
+      { source: "/:path*", headers: all.filter((h) => h.key !== "Content-Security-Policy") },
+      { source: "/api/:path*", headers: csp },
+    ];
   },
 };
 

@@ -13,7 +13,7 @@ import { calibrateSlipZero } from "@/lib/slip/calibrate-slip-zero";
 import { spinEvents } from "@/lib/slip/spin-events";
 import { cornerExitSlip, type CornerExitSlip } from "@/lib/slip/corner-exit-slip";
 import { slipThrottleScatter } from "@/lib/slip/slip-throttle-scatter";
-import { suspensionUse, DEFAULT_LOW_HIGH_BOUNDARY_MS } from "@/lib/suspension/suspension-use";
+import { suspensionUse, DEFAULT_LOW_HIGH_BOUNDARY_MS, DEFAULT_VELOCITY_WINDOW_MS } from "@/lib/suspension/suspension-use";
 import { gearFromRatios } from "@/lib/gear/gear-from-ratios";
 import { timeInGear, type TimeInGear } from "@/lib/gear/time-in-gear";
 import { shiftEvents } from "@/lib/gear/shift-events";
@@ -185,12 +185,18 @@ export interface SuspensionSide {
   maxTravelMm: number | null;
   maxTravelPct: number | null;
   bottomingCount: number;
+  /** The travel channel's own sample rate (Hz) and the velocity window in its own samples. */
+  channelRateHz: number | null;
+  windowSamples: number;
+  /** Why the velocity histogram is empty, when it is (too few of the channel's own samples in a row). */
+  velocityNote: string | null;
 }
 
 export interface SuspensionAnalysis {
   scope: string;
   lap: number | null;
   laps: LapInfo[];
+  /** Velocity window (ms). */
   window: number;
   boundaryMs: number;
   fork: SuspensionSide | null;
@@ -198,9 +204,13 @@ export interface SuspensionAnalysis {
   sampleRateHz: number | null;
 }
 
-export const SG_WINDOWS = [5, 7, 9, 11, 15, 21] as const;
-/** The Savitzky–Golay window the page starts with (samples). */
-export const DEFAULT_SG_WINDOW = 7;
+/**
+ * Savitzky–Golay windows offered, in milliseconds (each becomes an odd count of the travel
+ * channel's own samples): at 100 Hz these are the 5- to 21-sample windows.
+ */
+export const SG_WINDOWS = [50, 70, 90, 110, 150, 210] as const;
+/** The Savitzky–Golay window the page starts with (ms; a Lapbench default). */
+export const DEFAULT_SG_WINDOW = DEFAULT_VELOCITY_WINDOW_MS;
 
 /** The settings as computeSuspension reads them: a window not offered, or a boundary ≤ 0, falls back to the default. */
 export function suspensionSettings(opts: { window?: number; boundaryMs?: number }): { window: number; boundaryMs: number } {
@@ -221,7 +231,7 @@ function suspensionSides(base: AnalysisBase, from: number, to: number, window: n
     for (let i = 0; i < x.length; i++) if (x[i] > observed) observed = x[i];
     // Without the bike's stroke, the deepest travel seen stands in (bottoming then means nothing).
     const strokeM = strokeMm ? strokeMm / 1000 : observed || 1;
-    const u = suspensionUse(x, t, { strokeM, lowHighBoundaryMs: boundaryMs, velocityWindow: window, velocityOrder: 2, speedMs: speed?.subarray(from, to), leanDeg: series.channels.lean_angle?.subarray(from, to) });
+    const u = suspensionUse(x, t, { strokeM, lowHighBoundaryMs: boundaryMs, velocityWindowMs: window, velocityOrder: 2, speedMs: speed?.subarray(from, to), leanDeg: series.channels.lean_angle?.subarray(from, to) });
     const mm = (v: number | null) => (v == null || !Number.isFinite(v) ? null : Math.round(v * 10000) / 10);
     return {
       label,
@@ -234,6 +244,12 @@ function suspensionSides(base: AnalysisBase, from: number, to: number, window: n
       maxTravelMm: mm(u.maxTravelM),
       maxTravelPct: Number.isFinite(u.maxTravelPct) ? u.maxTravelPct : null,
       bottomingCount: strokeMm ? u.bottoming.count : 0,
+      channelRateHz: u.channelRateHz,
+      windowSamples: u.velocityWindowSamples,
+      velocityNote:
+        u.sampleCount > 0 && u.velocity.timePct.every((p) => p === 0)
+          ? `No velocity: the ${label.toLowerCase()} channel has no run of ${u.velocityWindowSamples} samples in a row${u.channelRateHz ? ` at its own ${Math.round(u.channelRateHz)} Hz` : ""} to fit the ${window} ms window.`
+          : null,
     };
   };
   return { fork: side("Fork", series.channels.fork_travel, base.bike?.forkStrokeMm ?? null), shock: side("Shock", series.channels.shock_travel, base.bike?.shockStrokeMm ?? null) };

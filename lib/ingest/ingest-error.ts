@@ -51,6 +51,8 @@ export interface IngestErrorDetails {
   column?: string;
   /** 0-based byte offset in the file. */
   byteOffset?: number;
+  /** DUPLICATE_TIME: how many rows repeat the time stamp of the row before. */
+  duplicateRows?: number;
 }
 
 export class IngestError extends Error {
@@ -58,6 +60,7 @@ export class IngestError extends Error {
   readonly line?: number;
   readonly column?: string;
   readonly byteOffset?: number;
+  readonly duplicateRows?: number;
 
   constructor(code: IngestErrorCode, message: string, details: IngestErrorDetails = {}) {
     super(message);
@@ -66,6 +69,7 @@ export class IngestError extends Error {
     this.line = details.line;
     this.column = details.column;
     this.byteOffset = details.byteOffset;
+    this.duplicateRows = details.duplicateRows;
   }
 
   /** Plain object for a job record or a JSON response. */

@@ -221,6 +221,7 @@ export async function parseCsvStream(
   let missingMarkers = 0;
   const keepFirstOfDuplicates = mapping.duplicateTimes === "keepFirst";
   let duplicateRows = 0;
+  let firstDuplicate: { line: number; prevLine: number; cell: string } | undefined;
   const isOther = channels.map((c) => c.role === "other");
   const textCells = new Array<number>(channels.length).fill(0);
   const textExample = new Array<string>(channels.length).fill("");
@@ -322,16 +323,11 @@ export async function parseCsvStream(
         firstTimeCell = tCell.trim();
       } else if (!(t > prevRaw)) {
         if (t === prevRaw) {
-          if (keepFirstOfDuplicates) {
-            duplicateRows++;
-            continue;
-          }
-          throw new IngestError(
-            "DUPLICATE_TIME",
-            `Line ${line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(tCell.trim())} repeats the one on line ${prevLine}; time stamps must be unique. ` +
-              "If the export rounded the times, import it keeping the first row of each time stamp.",
-            { line, column: timeHeader },
-          );
+          // Refused or not, every repeat is counted (the refusal says how many rows keeping the
+          // first of each stamp would drop); the first one is named in the refusal.
+          duplicateRows++;
+          if (!keepFirstOfDuplicates && !firstDuplicate) firstDuplicate = { line, prevLine, cell: tCell.trim() };
+          continue;
         }
         throw new IngestError(
           "TIME_BACKWARDS",
@@ -438,6 +434,16 @@ export async function parseCsvStream(
     throw new IngestError("HEADER_ONLY", `The file has a header (line ${header.headerLine}) but no data lines.`, { line: header.headerLine });
   }
 
+  if (firstDuplicate) {
+    const d = firstDuplicate;
+    throw new IngestError(
+      "DUPLICATE_TIME",
+      `Line ${d.line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(d.cell)} repeats the one on line ${d.prevLine}; time stamps must be unique. ` +
+        `${duplicateRows.toLocaleString("en-GB")} ${duplicateRows === 1 ? "row repeats" : "rows repeat"} the time stamp of the row before. ` +
+        "If the export rounded the times, import it keeping the first row of each time stamp.",
+      { line: d.line, column: timeHeader, duplicateRows },
+    );
+  }
   const out: ParsedChannel[] = [];
   const stats = (k: number) => ({ sampleCount: counts[k], min: counts[k] > 0 ? mins[k] : NaN, max: counts[k] > 0 ? maxs[k] : NaN });
   let joinedTime: Float64Array;

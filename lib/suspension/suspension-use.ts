@@ -8,11 +8,71 @@ import { savitzkyGolayDerivative } from "./savitzky-golay";
  */
 export const DEFAULT_LOW_HIGH_BOUNDARY_MS = 0.1;
 
+/**
+ * The velocity window the pages start with: 70 ms, which is the 7-sample window of a 100 Hz log.
+ * A Lapbench default, not a published figure: a team widens it for a noisy pot.
+ */
+export const DEFAULT_VELOCITY_WINDOW_MS = 70;
+
+/**
+ * A travel channel's own samples: a pot logged slower than the master clock shows up as NaN
+ * between its samples. Returns the indices of the finite samples, the channel's own step (the
+ * median step between them, s) and the window in the channel's own samples (odd, ≥ 5).
+ */
+export function channelSamples(travelM: ArrayLike<number>, timeS: ArrayLike<number>, windowMs: number): { index: Int32Array; dtS: number; window: number } {
+  const n = travelM.length;
+  let m = 0;
+  const index = new Int32Array(n);
+  for (let i = 0; i < n; i++) if (Number.isFinite(travelM[i])) index[m++] = i;
+  const idx = index.subarray(0, m);
+  if (m < 2) return { index: idx, dtS: NaN, window: 5 };
+  const steps = new Float64Array(m - 1);
+  for (let k = 1; k < m; k++) steps[k - 1] = timeS[idx[k]] - timeS[idx[k - 1]];
+  steps.sort();
+  const mid = (m - 1) >> 1;
+  const dtS = (m - 1) % 2 ? steps[mid] : 0.5 * (steps[mid - 1] + steps[mid]);
+  let window = Math.round(windowMs / 1000 / dtS);
+  if (!Number.isFinite(window) || window < 5) window = 5;
+  if (window % 2 === 0) window += 1;
+  return { index: idx, dtS, window };
+}
+
+/**
+ * Velocity (x per second) of a channel on its own samples: the finite samples are taken out of the
+ * master clock, split where a gap is longer than 1.5 channel steps (a dropout is not smoothed
+ * across), differentiated by Savitzky–Golay run by run, and put back at their own times. Samples
+ * between the channel's own samples stay NaN, and a run shorter than the window gives NaN.
+ */
+export function channelVelocity(travelM: ArrayLike<number>, timeS: ArrayLike<number>, windowMs: number, order: number): { velocity: Float32Array; dtS: number; window: number; samples: number } {
+  const n = travelM.length;
+  const out = new Float32Array(n).fill(NaN);
+  const { index, dtS, window } = channelSamples(travelM, timeS, windowMs);
+  const m = index.length;
+  if (m < 2) return { velocity: out, dtS, window, samples: m };
+  let start = 0;
+  for (let k = 1; k <= m; k++) {
+    if (k < m && timeS[index[k]] - timeS[index[k - 1]] <= 1.5 * dtS) continue;
+    const len = k - start;
+    if (len >= window) {
+      const run = new Float64Array(len);
+      for (let j = 0; j < len; j++) run[j] = travelM[index[start + j]];
+      const v = savitzkyGolayDerivative(run, dtS, window, order, 1);
+      for (let j = 0; j < len; j++) out[index[start + j]] = v[j];
+    }
+    start = k;
+  }
+  return { velocity: out, dtS, window, samples: m };
+}
+
 export interface SuspensionUseOptions {
   /** Full stroke of the fork or shock (m). */
   strokeM: number;
-  /** Savitzky–Golay window for velocity (samples, odd). Default 7. */
-  velocityWindow?: number;
+  /**
+   * Savitzky–Golay window for velocity, as a span of time (ms). It becomes an odd number of the
+   * channel's OWN samples (at least 5), so a pot logged at 50 Hz on a 200 Hz master clock gets the
+   * same smoothing in time as one logged at 200 Hz. Default DEFAULT_VELOCITY_WINDOW_MS.
+   */
+  velocityWindowMs?: number;
   /** Savitzky–Golay polynomial order. Default 2. */
   velocityOrder?: number;
   /** Low/high-speed split (m/s) — a setting, see DEFAULT_LOW_HIGH_BOUNDARY_MS. */
@@ -58,6 +118,9 @@ export interface SuspensionUse {
   maxTravelM: number;
   maxTravelPct: number;
   bottoming: { count: number; events: BottomingEvent[] };
+  /** The channel's own sample rate (Hz) and the velocity window in its own samples. */
+  channelRateHz: number | null;
+  velocityWindowSamples: number;
 }
 
 function median(values: Float32Array | Float64Array, count: number): number {
@@ -70,14 +133,15 @@ function median(values: Float32Array | Float64Array, count: number): number {
 export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: SuspensionUseOptions): SuspensionUse {
   const n = travelM.length;
   const { strokeM, lowHighBoundaryMs } = opts;
-  const window = opts.velocityWindow ?? 7;
+  const windowMs = opts.velocityWindowMs ?? DEFAULT_VELOCITY_WINDOW_MS;
   const order = opts.velocityOrder ?? 2;
   const bins = opts.bins ?? 20;
   const vWidth = opts.velocityBinWidthMs ?? 0.025;
   const vRange = opts.velocityRangeMs ?? 0.5;
   const dtS = n > 1 ? (timeS[n - 1] - timeS[0]) / (n - 1) : 1;
 
-  const velocityMs = savitzkyGolayDerivative(travelM, dtS, window, order, 1);
+  const own = channelVelocity(travelM, timeS, windowMs, order);
+  const velocityMs = own.velocity;
 
   const posEdges = new Float64Array(bins + 1);
   for (let b = 0; b <= bins; b++) posEdges[b] = (100 * b) / bins;
@@ -149,7 +213,8 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
         steady[ns++] = x;
       }
     }
-    const minCount = Math.ceil(1 / dtS);
+    // 1 s of the channel's own samples (a slow pot has fewer samples per second than the clock).
+    const minCount = Math.ceil(1 / (Number.isFinite(own.dtS) && own.dtS > 0 ? own.dtS : dtS));
     if (ns >= minCount) steadySpeedM = median(steady, ns);
     if (nz >= minCount) stoppedM = median(stopped, nz);
   }
@@ -172,5 +237,7 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
     maxTravelM: pCount ? maxTravelM : NaN,
     maxTravelPct: pCount ? (100 * maxTravelM) / strokeM : NaN,
     bottoming: { count: events.length, events },
+    channelRateHz: Number.isFinite(own.dtS) && own.dtS > 0 ? 1 / own.dtS : null,
+    velocityWindowSamples: own.window,
   };
 }

@@ -146,13 +146,13 @@ describe("Suspension use", () => {
 
   it("a lap and the Savitzky–Golay window are applied (velocity histogram changes, positions do not)", async () => {
     const lap = (await riderBrief(getSequelize(), sessionId)).bestLap!;
-    const narrow = await suspensionAnalysis(getSequelize(), sessionId, { lap, window: 5 });
-    const wide = await suspensionAnalysis(getSequelize(), sessionId, { lap, window: 21 });
+    const narrow = await suspensionAnalysis(getSequelize(), sessionId, { lap, window: 50 });
+    const wide = await suspensionAnalysis(getSequelize(), sessionId, { lap, window: 210 });
     expect(narrow.scope).toBe(`Lap ${lap}`);
-    expect(wide.window).toBe(21);
+    expect(wide.window).toBe(210);
     expect(wide.fork!.position.timePct).toEqual(narrow.fork!.position.timePct);
     expect(wide.fork!.velocity.timePct).not.toEqual(narrow.fork!.velocity.timePct);
-    const session = await suspensionAnalysis(getSequelize(), sessionId, { window: 5 });
+    const session = await suspensionAnalysis(getSequelize(), sessionId, { window: 50 });
     expect(session.scope).toBe("Whole session");
     expect(session.fork!.position.timePct).not.toEqual(narrow.fork!.position.timePct);
   });

@@ -47,8 +47,8 @@ async function expectStoredEqualsComputed(): Promise<number> {
     expect(await riderBrief(sq(), sessionId, { lap }), `brief, lap ${lap}`).toEqual(computeBrief(briefBase, { lap }));
     compared += 3;
   }
-  // The page passes the defaults explicitly: window 7, 100 mm/s as 100 / 1000 m/s.
-  expect(await suspensionAnalysis(sq(), sessionId, { window: 7, boundaryMs: 100 / 1000, lap: null })).toEqual(computeSuspension(suspBase, {}));
+  // The page passes the defaults explicitly: window 70 ms, 100 mm/s as 100 / 1000 m/s.
+  expect(await suspensionAnalysis(sq(), sessionId, { window: 70, boundaryMs: 100 / 1000, lap: null })).toEqual(computeSuspension(suspBase, {}));
   expect(await gearAnalysis(sq(), sessionId)).toEqual(computeGears(gearBase));
   return compared + 2;
 }
@@ -125,9 +125,9 @@ describe("page analyses stored at ingest (three-laps-20hz.csv)", () => {
     expect(lean.lean.applied).toBe(true);
     expect(lean).toEqual(computeSlip(slipBase, { lean: true }));
     const suspBase = await loadAnalysisBase(sq(), sessionId, PAGE_ROLES.suspension);
-    const w9 = await suspensionAnalysis(sq(), sessionId, { window: 9 });
-    expect(w9.window).toBe(9);
-    expect(w9).toEqual(computeSuspension(suspBase, { window: 9 }));
+    const w9 = await suspensionAnalysis(sq(), sessionId, { window: 90 });
+    expect(w9.window).toBe(90);
+    expect(w9).toEqual(computeSuspension(suspBase, { window: 90 }));
     expect(w9.fork!.velocity.timePct).not.toEqual((await suspensionAnalysis(sq(), sessionId)).fork!.velocity.timePct);
     const split = await suspensionAnalysis(sq(), sessionId, { boundaryMs: 0.05 });
     expect(split.fork!.split.boundaryMs).toBe(0.05);

@@ -124,6 +124,9 @@ describe("real-world CSV quirks", () => {
     const refused = await ingestErrorOf(parseCsvText(Buffer.from(text), mappingFor(text)));
     expect(refused.code).toBe("DUPLICATE_TIME");
     expect(refused.message).toMatch(/keeping the first row of each time stamp/);
+    // The refusal counts every repeat (the same 19 the kept import drops), not only the first.
+    expect(refused.message).toMatch(/19 rows repeat the time stamp of the row before/);
+    expect(refused.duplicateRows).toBe(19);
     const kept = await parseCsvText(Buffer.from(text), { ...mappingFor(text), duplicateTimes: "keepFirst" });
     // 100 rows, 20 repeats (i = 4, 9, …, 99 leave t unchanged for the next row; the last has none after it): 19 dropped.
     expect(kept.rows).toBe(81);

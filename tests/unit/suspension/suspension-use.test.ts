@@ -101,3 +101,61 @@ describe("bottomingEvents", () => {
     expect(ev[1].peakTravelM).toBeCloseTo(0.12, 6);
   });
 });
+
+describe("suspensionUse on a pot logged slower than the master clock", () => {
+  // The same 2 Hz, 40 mm sine as above, on a 200 Hz master clock, but the pot is logged at 50 Hz:
+  // three master samples in four are NaN (the channel has no value there).
+  const dt = 0.005;
+  const n = 2000;
+  const A = 0.04;
+  const f = 2;
+  const t = new Float64Array(n);
+  const slow = new Float32Array(n).fill(NaN);
+  for (let i = 0; i < n; i++) {
+    t[i] = i * dt;
+    if (i % 4 === 0) slow[i] = 0.06 + A * Math.sin(2 * Math.PI * f * t[i]);
+  }
+
+  it("gives a real velocity histogram from the channel's own 50 Hz samples", () => {
+    const vmax = 2 * Math.PI * f * A; // 0.503 m/s, d/dt of A·sin(2πft) (calculus)
+    const u = suspensionUse(slow, t, { strokeM: 0.12, lowHighBoundaryMs: vmax / 2 });
+    expect(u.channelRateHz).toBeCloseTo(50, 6);
+    // 70 ms at 20 ms a sample is 3.5 samples, so the smallest window for a quadratic fit (5).
+    expect(u.velocityWindowSamples).toBe(5);
+    const total = Array.from(u.velocity.timePct).reduce((a, b) => a + b, 0);
+    expect(total).toBeCloseTo(100, 6);
+    // Share of time below vmax/2 is (2/π)·asin(1/2) = 1/3 (analytic, as above); 25 samples a cycle
+    // quantise the share to 4 %, so within 4 percentage points.
+    const low = u.split.compressionLowPct + u.split.reboundLowPct;
+    expect(Math.abs(low - 100 / 3)).toBeLessThan(4);
+    // Velocity at the channel's own samples is 2πfA·cos(2πft) times the gain of the 5-point
+    // quadratic derivative filter (−2, −1, 0, 1, 2)/(10·Δt) at θ = 2πfΔt: G = (2 sin θ + 4 sin 2θ)/(10 θ)
+    // = 0.965 at θ = 0.251 (frequency response of the tabulated coefficients, Savitzky & Golay 1964).
+    // Within 0.5 % of the peak; the samples in between stay NaN (no value is invented).
+    const th = 2 * Math.PI * f * 0.02;
+    const gain = (2 * Math.sin(th) + 4 * Math.sin(2 * th)) / (10 * th);
+    let worst = 0;
+    for (let i = 40; i < n - 40; i += 4) worst = Math.max(worst, Math.abs(u.velocityMs[i] - gain * vmax * Math.cos(2 * Math.PI * f * t[i])));
+    expect(worst / vmax).toBeLessThan(0.005);
+    expect(Number.isNaN(u.velocityMs[1])).toBe(true);
+  });
+
+  it("sets the window in milliseconds: the same span of time at 200 Hz and at 50 Hz", () => {
+    const fast = new Float32Array(n);
+    for (let i = 0; i < n; i++) fast[i] = 0.06 + A * Math.sin(2 * Math.PI * f * t[i]);
+    const a = suspensionUse(fast, t, { strokeM: 0.12, lowHighBoundaryMs: 0.1, velocityWindowMs: 100 });
+    const b = suspensionUse(slow, t, { strokeM: 0.12, lowHighBoundaryMs: 0.1, velocityWindowMs: 100 });
+    expect(a.velocityWindowSamples).toBe(21); // 100 ms / 5 ms = 20 → odd 21
+    expect(b.velocityWindowSamples).toBe(5); // 100 ms / 20 ms = 5
+  });
+
+  it("does not smooth across a dropout in the channel", () => {
+    const gap = slow.slice();
+    for (let i = 1000; i < 1200; i++) gap[i] = NaN; // 1 s without the pot
+    const u = suspensionUse(gap, t, { strokeM: 0.12, lowHighBoundaryMs: 0.1 });
+    // Both sides of the gap keep their velocities; the gap itself has none.
+    expect(Number.isFinite(u.velocityMs[996])).toBe(true);
+    expect(Number.isFinite(u.velocityMs[1200])).toBe(true);
+    for (let i = 1000; i < 1200; i++) expect(Number.isNaN(u.velocityMs[i])).toBe(true);
+  });
+});

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { initModels } from "@/models";
 import { suspensionAnalysis, SG_WINDOWS, type SuspensionAnalysis, type SuspensionSide } from "@/lib/data/analysis";
-import { DEFAULT_LOW_HIGH_BOUNDARY_MS } from "@/lib/suspension/suspension-use";
+import { DEFAULT_LOW_HIGH_BOUNDARY_MS, DEFAULT_VELOCITY_WINDOW_MS } from "@/lib/suspension/suspension-use";
 import { getSessionForViewer } from "@/lib/data/session-detail";
 import { viewerSession } from "@/components/analysis/viewer-session";
 import { AnalysisHeader } from "@/components/analysis/analysis-header";
@@ -19,7 +19,7 @@ export default async function SuspensionPage({ params, searchParams }: { params:
   const { id } = await params;
   const sp = await searchParams;
   const { ctx, session } = await viewerSession(id, `/sessions/${id}/suspension`);
-  const window = num(sp.window) ?? 7;
+  const window = num(sp.window) ?? DEFAULT_VELOCITY_WINDOW_MS;
   const boundaryMms = num(sp.boundary) ?? DEFAULT_LOW_HIGH_BOUNDARY_MS * 1000;
   const opts = { window, boundaryMs: boundaryMms / 1000 };
   const sequelize = initModels();
@@ -64,7 +64,7 @@ export default async function SuspensionPage({ params, searchParams }: { params:
           <span className="label">Velocity window</span>
           <select name="window" defaultValue={String(a.window)} className="field">
             {SG_WINDOWS.map((w) => (
-              <option key={w} value={w}>{w} samples{a.sampleRateHz ? ` (${((w / a.sampleRateHz) * 1000).toFixed(0)} ms)` : ""}</option>
+              <option key={w} value={w}>{w} ms</option>
             ))}
           </select>
         </label>
@@ -116,6 +116,8 @@ function Side({ s }: { s: SuspensionSide }) {
         <dd className="num">{mm(s.sagMm.standing)}</dd>
         <dt className="text-ink-400">Maximum travel</dt>
         <dd className="num">{mm(s.maxTravelMm)} {s.maxTravelPct != null ? `(${s.maxTravelPct.toFixed(0)} %)` : ""}</dd>
+        <dt className="text-ink-400">Logged at</dt>
+        <dd className="num">{s.channelRateHz ? `${Math.round(s.channelRateHz)} Hz · window ${s.windowSamples} samples` : "—"}</dd>
         <dt className="text-ink-400">Bottoming</dt>
         <dd className={`num ${s.bottomingCount ? "text-alert-400" : ""}`} data-testid="bottoming-count">{s.strokeFromBike ? s.bottomingCount : "—"}</dd>
       </dl>
@@ -125,6 +127,7 @@ function Side({ s }: { s: SuspensionSide }) {
       </div>
       <div>
         <p className="label">Velocity (mm/s, rebound − / compression +)</p>
+        {s.velocityNote ? <p className="text-sm text-alert-400" data-testid="velocity-note">{s.velocityNote}</p> : null}
         <HistogramSvg edges={s.velocity.edgesMms} values={s.velocity.timePct} label={`${s.label} velocity histogram`} unit="mm/s" split={[-b, b]} tickEvery={250} />
       </div>
       <table className="table-plain">

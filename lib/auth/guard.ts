@@ -32,7 +32,7 @@ export interface TeamContext extends Membership {
 type Statements = Parameters<(typeof roles)["owner"]["authorize"]>[0];
 export type Permission = Statements;
 
-/** Whether a role holds a permission (PRODUCT.md §7, defined in lib/auth/permissions.ts). */
+/** Whether a role holds a permission (the team role table, defined in lib/auth/permissions.ts). */
 export function roleCan(role: TeamRole, permission: Permission): boolean {
   return roles[role].authorize(permission).success;
 }

@@ -1,5 +1,5 @@
 /**
- * The main navigation: which screens exist and which roles see them (PRODUCT.md §7).
+ * The main navigation: which screens exist and which roles see them (the role table in lib/auth/permissions.ts).
  * Only screens that exist are listed; add an entry when a screen ships.
  */
 import type { TeamRole } from "./auth/permissions";

@@ -55,24 +55,10 @@ export class Engine extends Model<InferAttributes<Engine>, InferCreationAttribut
   declare updatedAt: CreationOptional<Date>;
 }
 
-export interface GatePoint {
-  lat: number;
-  lon: number;
-}
-export interface Gate {
-  a: GatePoint;
-  b: GatePoint;
-}
-export interface TrackGates {
-  startFinish: Gate | null;
-  sectors: Gate[];
-  pitEntry: Gate | null;
-  pitExit: Gate | null;
-}
-export interface TrackCorner {
-  name: string;
-  distanceM: number;
-}
+// The JSON shapes of a track's gates and corners live with the geometry types, so the browser-side
+// gate editor can use them without importing the database models.
+import type { TrackGates, TrackCorner } from "../lib/geo/stored-track";
+export type { GatePoint, Gate, TrackGates, TrackCorner } from "../lib/geo/stored-track";
 
 export class Track extends Model<InferAttributes<Track>, InferCreationAttributes<Track>> {
   declare id: CreationOptional<number>;

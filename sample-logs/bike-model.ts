@@ -26,7 +26,7 @@ export const BIKE = {
   rearSprocket: 40,
   /**
    * Rolling circumferences, metres. Nominal π·D is 2013.1 mm for 190/55 ZR17 and 1884.3 mm for
-   * 120/70 ZR17 (REFERENCES.md, ISO 5751 arithmetic); a loaded tyre rolls a few % smaller, so we
+   * 120/70 ZR17 (ISO 5751 tyre arithmetic); a loaded tyre rolls a few % smaller, so we
    * choose 1960 mm rear and 1850 mm front.
    */
   rearCircumferenceM: 1.96,

@@ -1,7 +1,8 @@
 /**
  * `npm test`: unit, integration (real MariaDB, started by the test setup) and end-to-end
- * (headless Chromium against a production build) tests, one project after the other so the
- * browser tests do not compete with the database tests for the machine's two cores. Ends with a
+ * (headless Chromium against a production build) tests, after the typecheck and the lint, one
+ * project after the other so the browser tests do not compete with the database tests for the
+ * machine's two cores. Ends with a
  * closing line "N passed, N failed" summed from vitest's JSON reports, so CI shows the count.
  * Extra arguments go to every vitest run (e.g. a file filter).
  */
@@ -20,6 +21,15 @@ const extra = process.argv.slice(2);
 console.log("=== typecheck (tsc --noEmit) ===");
 const tsc = spawnSync(process.execPath, [path.join(root, "node_modules", "typescript", "bin", "tsc"), "--noEmit", "-p", root], { cwd: root, stdio: "inherit" });
 if (tsc.status !== 0) {
+  console.log("\n0 passed, 1 failed");
+  process.exit(1);
+}
+
+// Lint next (eslint.config.mjs: the Next.js and react-hooks rules and the layer rules), warnings
+// included: a violation fails the run the same way.
+console.log("\n=== lint (eslint . --max-warnings=0) ===");
+const lint = spawnSync(process.execPath, [path.join(root, "node_modules", "eslint", "bin", "eslint.js"), ".", "--max-warnings=0"], { cwd: root, stdio: "inherit" });
+if (lint.status !== 0) {
   console.log("\n0 passed, 1 failed");
   process.exit(1);
 }

@@ -120,7 +120,8 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
   // Invented machines set up like the sample-log generator's bike (sample-logs/bike-model.ts), so
   // gear, slip and rev-ceiling figures of the demo sessions agree with the logs. Its rolling
   // circumferences sit a little under the nominal π·D of a 120/70 ZR17 front (1884 mm) and a
-  // 190/55 ZR17 rear (2013 mm), as real tyres roll smaller (REFERENCES.md).
+  // 190/55 ZR17 rear (2013 mm), as real tyres roll smaller (nominal D = 25.4·rim + 2·width·aspect/100, ISO 5751 / ETRTO
+  // practice, from memory).
   const setup = {
     className: "Superbike (1000 cc four)",
     wheelCircFrontMm: BIKE.frontCircumferenceM * 1000,

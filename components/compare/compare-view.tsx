@@ -298,10 +298,9 @@ export function CompareView({ sessions, initialUnits }: { sessions: PickerSessio
     },
     [shown, paneCount],
   );
-  // The corner view has no uPlot panes: it is drawn once its data is in.
-  useEffect(() => {
-    if (mode === "corners" && whole) setDrawnFor(whole.url);
-  }, [mode, whole]);
+  // The corner view has no uPlot panes: it is drawn once its data is in (set while rendering, the
+  // way React adjusts state to changed data, rather than in an effect).
+  if (mode === "corners" && whole && drawnFor !== whole.url) setDrawnFor(whole.url);
 
   const setLaps = (next: LapRef[]) => setView({ laps: next.length ? formatLapRefs(next) : null, from: null, to: null });
   const cursorDisplay = cursorX == null ? null : cursorX * xUnit.factor + xUnit.offset;

@@ -69,7 +69,7 @@ export function CornerView({ laps, corners, cornerSource, trace, speedUnit, dist
     <section aria-label="Corners" data-testid="corner-view" className="space-y-2">
       <p className="px-1 text-xs text-ink-400">
         {cornerSource === "track" ? "The track's named corners" : "Corners found from the reference lap's speed (name them on the track page)"}, each from halfway after the corner before to halfway
-        to the next. Speeds in {speedUnit.unit}; braking is where front pressure first passed 5 bar, counted back from the reference lap's slowest point. Time gained is against lap {laps[0].lap}.
+        to the next. Speeds in {speedUnit.unit}; braking is where front pressure first passed 5 bar, counted back from the reference lap&apos;s slowest point. Time gained is against lap {laps[0].lap}.
       </p>
       <ol className="grid gap-3 sm:grid-cols-2 2xl:grid-cols-3">
         {corners.map((c, k) => {

@@ -120,7 +120,7 @@ export function TrackMap({ x, eastM, northM, values, valueLabel, cursorX, diverg
     c.lineWidth = 3;
     c.strokeStyle = "#e4e8ed";
     c.stroke();
-  }, [cursorX, x, eastM, northM]);
+  }, [cursorX, x, eastM, northM, SIZE]);
 
   const r = range;
   return (

@@ -1,13 +1,12 @@
 import Link from "next/link";
-import type { TeamContext } from "@/lib/auth/guard";
-import { listFindingsToReview } from "@/lib/data/findings";
+import type { listFindingsToReview } from "@/lib/data/findings";
 import { findingKindLabel, SEVERITY_LABEL } from "@/lib/findings/finding-labels";
 
 const DOT: Record<string, string> = { critical: "bg-alert-400", warning: "bg-signal-400", info: "bg-ink-400" };
 
 /** Unacknowledged findings of the team's recent sessions the caller may see, with links. */
-export async function FindingsToReview({ ctx }: { ctx: TeamContext }) {
-  const items = await listFindingsToReview(ctx, { limit: 8 });
+export async function FindingsToReview({ items: pending }: { items: ReturnType<typeof listFindingsToReview> }) {
+  const items = await pending;
   if (items.length === 0)
     return <p className="text-sm text-ink-400">Nothing to review. Findings appear here when an analysed session shows something that looks wrong.</p>;
   return (

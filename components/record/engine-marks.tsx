@@ -1,11 +1,10 @@
 import Link from "next/link";
-import type { TeamContext } from "@/lib/auth/guard";
-import { enginesNearingRebuild } from "@/lib/data/engine-season";
+import type { enginesNearingRebuild } from "@/lib/data/engine-season";
 
 /** Team home mark for engineers and owners: engines at or past 80 % of their rebuild interval. */
-export async function EngineMarks({ ctx }: { ctx: TeamContext }) {
-  if (ctx.role !== "owner" && ctx.role !== "engineer") return null;
-  const near = await enginesNearingRebuild(ctx);
+export async function EngineMarks({ near: pending }: { near: ReturnType<typeof enginesNearingRebuild> | null }) {
+  if (!pending) return null;
+  const near = await pending;
   if (near.length === 0) return null;
   return (
     <section className="card border-signal-600/60" aria-labelledby="engines-near" data-testid="engines-nearing">

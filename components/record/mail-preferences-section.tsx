@@ -1,13 +1,12 @@
-import type { TeamContext } from "@/lib/auth/guard";
-import { getMailPreferences } from "@/lib/data/mail-preferences";
+import type { TeamRole } from "@/lib/auth/permissions";
+import type { getMailPreferences } from "@/lib/data/mail-preferences";
 import { MailPreferencesForm } from "./mail-preferences-form";
 
-export async function MailPreferencesSection({ ctx }: { ctx: TeamContext }) {
-  const prefs = await getMailPreferences(ctx);
+export function MailPreferencesSection({ prefs, role }: { prefs: Awaited<ReturnType<typeof getMailPreferences>>; role: TeamRole }) {
   return (
     <section className="space-y-3" aria-labelledby="mail-h">
       <h2 id="mail-h" className="text-sm font-semibold uppercase tracking-wide text-ink-300">Your e-mail</h2>
-      <MailPreferencesForm prefs={prefs} role={ctx.role} />
+      <MailPreferencesForm prefs={prefs} role={role} />
     </section>
   );
 }

@@ -58,6 +58,7 @@ export function SeasonTable({ rows, speedUnit, pageSize = 25 }: { rows: SeasonRo
     ],
     [speedUnit],
   );
+  // eslint-disable-next-line react-hooks/incompatible-library -- known false positive of the React Compiler rule for TanStack Table: this component is not memoised by the compiler and passes the table to nothing memoised.
   const table = useReactTable({
     data: rows,
     columns,

@@ -1,11 +1,10 @@
 import Link from "next/link";
-import type { TeamContext } from "@/lib/auth/guard";
-import { listSessionActivity } from "@/lib/data/activity-log";
+import type { listSessionActivity } from "@/lib/data/activity-log";
 import { ActivityList } from "./activity-list";
 
 /** On the session page: printable sheets, setup history, and the session's activity log. */
-export async function SessionRecord({ ctx, sessionId }: { ctx: TeamContext; sessionId: number }) {
-  const entries = await listSessionActivity(ctx, sessionId);
+export async function SessionRecord({ entries: pending, sessionId }: { entries: ReturnType<typeof listSessionActivity>; sessionId: number }) {
+  const entries = await pending;
   return (
     <section className="card space-y-3" aria-labelledby="record-h" data-testid="session-record">
       <div className="flex flex-wrap items-baseline justify-between gap-2">

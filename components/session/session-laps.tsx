@@ -4,8 +4,7 @@
  */
 import Link from "next/link";
 import { cookies } from "next/headers";
-import { pageTeam } from "@/lib/auth/page-guard";
-import { listSessionLaps, toLibLap, type LapRow } from "@/lib/data/laps";
+import type { listSessionLaps, LapRow } from "@/lib/data/laps";
 import { bestSectorLap } from "@/lib/laps/best-sector-lap";
 import { isFlyingLap } from "@/lib/laps/types";
 import { formatLapTime } from "@/lib/export/format-lap-time";
@@ -48,10 +47,9 @@ function Flags({ lap }: { lap: LapRow }) {
   );
 }
 
-export async function SessionLaps({ sessionId, teamId }: { sessionId: number; teamId: string }) {
-  const ctx = await pageTeam();
-  if (ctx.teamId !== teamId) return null;
-  const { session, laps } = await listSessionLaps(ctx, sessionId);
+export async function SessionLaps({ data }: { data: ReturnType<typeof listSessionLaps> }) {
+  const { session, laps } = await data;
+  const sessionId = session.id;
   const system = parseUnitSystem((await cookies()).get(UNIT_COOKIE)?.value);
   const speedUnit = displayUnitIn(system, "speed_front", "m/s");
 
@@ -69,7 +67,7 @@ export async function SessionLaps({ sessionId, teamId }: { sessionId: number; te
     );
   }
 
-  const lib = laps.map(toLibLap);
+  const lib = laps; // a LapRow is a lib/laps Lap with the stored extras
   const flying = laps.filter((l, i) => isFlyingLap(lib[i]));
   const sectorCount = laps.reduce((m, l) => Math.max(m, l.sectorTimesMs.length), 0);
   const bestLapMs = flying.length ? Math.min(...flying.map((l) => l.lapTimeMs)) : null;

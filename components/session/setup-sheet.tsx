@@ -2,8 +2,8 @@
 /**
  * The session's setup sheet: the latest version for everyone who sees the session, with what
  * changed since the version before marked, the list of versions, and for engineers and the owner a
- * form that saves the next version (nothing is overwritten). The caution of PRODUCT.md §9 sits on
- * top because a sheet is a record of what was fitted, not advice on what to fit.
+ * form that saves the next version (nothing is overwritten). The safety caution (inspect,
+ * follow service data and qualified mechanics) sits on top because a sheet is a record of what was fitted, not advice on what to fit.
  */
 import { useActionState } from "react";
 import Link from "next/link";

@@ -1,10 +1,9 @@
 import Link from "next/link";
-import { listRecentSessions } from "@/lib/data/sessions";
-import type { TeamContext } from "@/lib/auth/guard";
+import type { SessionListItem } from "@/lib/data/sessions";
 import { SessionTable } from "./session-table";
 
-export async function RecentSessions({ ctx, canUpload }: { ctx: TeamContext; canUpload: boolean }) {
-  const sessions = await listRecentSessions(ctx);
+export async function RecentSessions({ sessions: pending, canUpload, isRider }: { sessions: Promise<SessionListItem[]>; canUpload: boolean; isRider: boolean }) {
+  const sessions = await pending;
   if (sessions.length === 0)
     return (
       <div className="rounded-md border border-dashed border-ink-700 px-4 py-8 text-center" data-testid="sessions-empty">
@@ -12,7 +11,7 @@ export async function RecentSessions({ ctx, canUpload }: { ctx: TeamContext; can
         <p className="mt-1 text-sm text-ink-400">
           {canUpload
             ? "Sessions appear here once a logger export has been uploaded and read."
-            : ctx.role === "rider"
+            : isRider
               ? "Your sessions appear here once the team has uploaded them."
               : "Sessions appear here once an engineer uploads a logger export."}
         </p>

@@ -1,6 +1,6 @@
 import { CAUTION_TEXT } from "@/lib/findings/caution";
 
-/** The caution the engine-life and setup screens carry (PRODUCT.md §9). */
+/** The caution the engine-life and setup screens carry (a symptom is not a diagnosis; service data, technical rules and qualified mechanics decide). */
 export function SetupCaution({ className = "" }: { className?: string }) {
   return (
     <aside role="note" aria-label="Caution" data-testid="caution" className={`flex gap-3 rounded-md border border-signal-600/50 bg-signal-500/5 px-4 py-3 text-sm text-ink-100 ${className}`}>

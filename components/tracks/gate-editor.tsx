@@ -5,12 +5,12 @@
  * selected gate, drag a gate along the path, delete or flip it; name corners by their distance
  * along the lap; save sends the whole track to the server action, which re-analyses its sessions.
  */
-import { useActionState, useEffect, useMemo, useRef, useState, type MouseEvent as ReactMouseEvent, type PointerEvent as ReactPointerEvent } from "react";
+import { useActionState, useMemo, useRef, useState, type MouseEvent as ReactMouseEvent, type PointerEvent as ReactPointerEvent } from "react";
 import { saveTrackAction } from "@/lib/actions/tracks";
 import type { SetupActionState } from "@/lib/actions/setup-state";
 import type { TrackEditorData } from "@/lib/data/track-editor";
 import type { Gate } from "@/lib/geo/types";
-import type { TrackCorner, TrackGates } from "@/models";
+import type { TrackCorner, TrackGates } from "@/lib/geo/stored-track";
 import { Feedback } from "@/components/setup/form-bits";
 import { flipGate, gateAtSnap, gateShape, pointAt, projectionFor, snapToPath, toPath, type Snap } from "./track-geometry";
 
@@ -41,9 +41,13 @@ export function GateEditor({ data, editable }: { data: TrackEditorData; editable
   const svgRef = useRef<SVGSVGElement>(null);
   const drag = useRef<Selection>(null);
 
-  useEffect(() => {
+  // A successful save clears "unsaved changes": adjusted while rendering when the action state
+  // changes (React's pattern for state that follows other state), not in an effect.
+  const [seenState, setSeenState] = useState(state);
+  if (seenState !== state) {
+    setSeenState(state);
     if (state.ok) setDirty(false);
-  }, [state]);
+  }
 
   const geo = useMemo(() => {
     const base = data.outline.length > 1 ? data.outline : (data.trace ?? []);

@@ -9,9 +9,8 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { HttpError } from "@/lib/http/http-error";
-import { getSequelize } from "@/models/db";
-import { confirmSessionImport, reimportSession, updateSessionDetails } from "@/lib/data/session-details";
-import { resolveDuplicate } from "@/lib/data/imports";
+import { confirmImport, reimport, saveSessionDetails } from "@/lib/data/session-details";
+import { resolveTeamDuplicate } from "@/lib/data/imports";
 import { importFormSchema, sessionDetailsSchema, issuesToErrors, type FormState, type ImportFormInput, type SessionDetailsInput } from "@/lib/forms/session-form";
 
 const UPLOAD = { permission: { "session-data": ["upload"] } } as const;
@@ -37,7 +36,7 @@ export async function confirmImportAction(sessionId: number, input: ImportFormIn
   const parsed = importFormSchema.safeParse(input);
   if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: issuesToErrors(parsed.error.issues) };
   try {
-    await confirmSessionImport(getSequelize(), g.ctx, Number(sessionId), parsed.data);
+    await confirmImport(g.ctx, Number(sessionId), parsed.data);
   } catch (e) {
     return failure(e);
   }
@@ -52,7 +51,7 @@ export async function saveSessionDetailsAction(sessionId: number, input: Session
   const parsed = sessionDetailsSchema.safeParse(input);
   if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: issuesToErrors(parsed.error.issues) };
   try {
-    await updateSessionDetails(getSequelize(), g.ctx, Number(sessionId), parsed.data);
+    await saveSessionDetails(g.ctx, Number(sessionId), parsed.data);
   } catch (e) {
     return failure(e);
   }
@@ -67,7 +66,7 @@ export async function reimportAction(_prev: FormState, form: FormData): Promise<
   const sessionId = Number(form.get("sessionId"));
   let status: string;
   try {
-    ({ status } = await reimportSession(getSequelize(), g.ctx, sessionId));
+    ({ status } = await reimport(g.ctx, sessionId));
   } catch (e) {
     return failure(e);
   }
@@ -84,7 +83,7 @@ export async function resolveDuplicateAction(_prev: FormState, form: FormData): 
   const choice = form.get("choice") === "import" ? "import" : "existing";
   let target: { sessionId: number; status: string };
   try {
-    target = await resolveDuplicate(getSequelize(), g.ctx.teamId, sessionId, choice);
+    target = await resolveTeamDuplicate(g.ctx, sessionId, choice);
   } catch (e) {
     return failure(e);
   }

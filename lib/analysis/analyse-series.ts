@@ -167,7 +167,10 @@ function boundPitIntervals(
     for (let k = lowerBound(fixes.timeS, iv.startTimeS); k < n && fixes.timeS[k] < iv.endTimeS; k++) {
       const d = haversineM(fixes.latDeg[k], fixes.lonDeg[k], mx, my);
       if (d < nearM) {
-        if (d < best) (best = d), (bestT = fixes.timeS[k]);
+        if (d < best) {
+          best = d;
+          bestT = fixes.timeS[k];
+        }
       } else if (Number.isFinite(best)) {
         return { startTimeS: iv.startTimeS, endTimeS: bestT };
       }

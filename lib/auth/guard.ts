@@ -29,10 +29,18 @@ export interface TeamContext extends Membership {
   memberships: Membership[];
 }
 
+/** A signed-in user with no team yet: 403 to an API caller; a page sends them to create a team. */
+export class NoTeamError extends HttpError {
+  constructor() {
+    super(403, "You are not a member of any team yet. Create a team or accept an invitation.");
+    this.name = "NoTeamError";
+  }
+}
+
 type Statements = Parameters<(typeof roles)["owner"]["authorize"]>[0];
 export type Permission = Statements;
 
-/** Whether a role holds a permission (PRODUCT.md §7, defined in lib/auth/permissions.ts). */
+/** Whether a role holds a permission (the team role table, defined in lib/auth/permissions.ts). */
 export function roleCan(role: TeamRole, permission: Permission): boolean {
   return roles[role].authorize(permission).success;
 }
@@ -144,7 +152,7 @@ export async function requireTeam(headers: Headers, opts: GuardOptions = {}): Pr
   const session = await resolveSessionCached(headers.get("cookie") ?? "");
   if (!session) throw unauthorized();
   const { memberships } = session;
-  if (memberships.length === 0) throw new HttpError(403, "You are not a member of any team yet. Create a team or accept an invitation.");
+  if (memberships.length === 0) throw new NoTeamError();
   const active = memberships.find((m) => m.teamId === session.activeOrganizationId) ?? memberships[0];
   if (opts.roles && !opts.roles.includes(active.role)) throw forbidden();
   if (opts.permission && !roleCan(active.role, opts.permission)) throw forbidden();

@@ -2,7 +2,7 @@ import "server-only";
 /** The guard for server components and server actions: same checks, page-shaped outcomes. */
 import { headers } from "next/headers";
 import { redirect, notFound } from "next/navigation";
-import { requireTeam, type GuardOptions, type TeamContext } from "./guard";
+import { NoTeamError, requireTeam, type GuardOptions, type TeamContext } from "./guard";
 import { HttpError } from "@/lib/http/http-error";
 import { safeReturnPath } from "@/lib/http/safe-return-path";
 
@@ -16,7 +16,7 @@ export async function pageTeam(opts: GuardOptions = {}, fromPath?: string): Prom
   } catch (e) {
     if (e instanceof HttpError) {
       if (e.status === 401) redirect(`/sign-in?next=${encodeURIComponent(from)}`);
-      if (e.status === 403 && /not a member of any team/.test(e.message)) redirect("/teams/new");
+      if (e instanceof NoTeamError) redirect("/teams/new");
       if (e.status === 403) redirect(`/forbidden?from=${encodeURIComponent(from)}`);
       if (e.status === 404) notFound();
     }

@@ -1,5 +1,5 @@
 /**
- * Who may do what inside a team (PRODUCT.md §7), as better-auth access-control roles. Browser-safe:
+ * Who may do what inside a team, as better-auth access-control roles. Browser-safe:
  * shared by the server options (lib/auth/options.ts) and the React client (lib/auth/client.ts).
  *
  * The organization plugin checks its own resources (organization, member, invitation, ac) when a

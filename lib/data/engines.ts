@@ -1,6 +1,6 @@
 import "server-only";
 /**
- * Engines and the Engine ledger (PRODUCT.md §5): life since the last rebuild from the hours and
+ * Engines and the Engine ledger: life since the last rebuild from the hours and
  * km at install plus every analysed session the engine ran. Team and role checks inside.
  */
 import { Op } from "sequelize";

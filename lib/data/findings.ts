@@ -1,6 +1,6 @@
 import "server-only";
 /**
- * Findings as plain objects, with the role rules of PRODUCT.md §7: a finding is read through its
+ * Findings as plain objects, with the role rules: a finding is read through its
  * session's visibility, and only roles holding finding:acknowledge may acknowledge one.
  */
 import { Op, QueryTypes } from "sequelize";

@@ -8,6 +8,7 @@ import { createHash } from "node:crypto";
 import { QueryTypes, type Sequelize } from "sequelize";
 import { z } from "zod";
 import { initModels, ImportProfile, LogFile, RideSession } from "@/models";
+import { getSequelize } from "@/models/db";
 import { sniffFormat, SNIFF_BYTES } from "@/lib/ingest/sniff-format";
 import { readCsvHeader, type CsvHeader } from "@/lib/ingest/csv-header";
 import { suggestMapping, type MappingSuggestion } from "@/lib/ingest/suggest-mapping";
@@ -296,4 +297,16 @@ export async function confirmMapping(sequelize: Sequelize, teamId: string, sessi
   });
   void profileId;
   await enqueueJob(sequelize, sessionId);
+}
+
+// The calling convention of the app (upload route, server actions): no database handle.
+
+/** Registers a completed upload for the team and user the upload grant was issued to. */
+export function registerTeamUpload(input: RegisterUploadInput): Promise<{ sessionId: number; duplicateOf?: number }> {
+  return registerUpload(getSequelize(), input);
+}
+
+/** Resolves a held duplicate within the caller's team. */
+export function resolveTeamDuplicate(ctx: { teamId: string }, sessionId: number, choice: "existing" | "import"): Promise<{ sessionId: number; status: string }> {
+  return resolveDuplicate(getSequelize(), ctx.teamId, sessionId, choice);
 }

@@ -5,6 +5,7 @@ import "server-only";
  * Another team's session is "not found" (404); a role without upload permission is refused (403).
  */
 import type { Sequelize } from "sequelize";
+import { getSequelize } from "@/models/db";
 import { initModels, RideSession, Rider, Bike, Engine, RaceEvent, LogFile, ImportProfile } from "@/models";
 import { roleCan, type TeamContext } from "@/lib/auth/guard";
 import { HttpError, forbidden } from "@/lib/http/http-error";
@@ -246,4 +247,22 @@ export async function getImportScreen(ctx: Caller, sessionId: number): Promise<I
       sharedWithRiders: s.sharedWithRiders,
     },
   };
+}
+
+// The calling convention of the app (server actions): the caller's context, no database handle.
+// The functions above take the handle too, so a test can run them in its own transaction.
+
+/** Saves a session's details as the caller (team and role checked inside). */
+export function saveSessionDetails(ctx: Caller, sessionId: number, d: SessionDetailsValues): Promise<void> {
+  return updateSessionDetails(getSequelize(), ctx, sessionId, d);
+}
+
+/** Confirms a session's import as the caller (team and role checked inside). */
+export function confirmImport(ctx: Caller, sessionId: number, v: ImportFormValues): Promise<void> {
+  return confirmSessionImport(getSequelize(), ctx, sessionId, v);
+}
+
+/** Reads a session's kept file again as the caller (team and role checked inside). */
+export function reimport(ctx: Caller, sessionId: number): Promise<{ status: string }> {
+  return reimportSession(getSequelize(), ctx, sessionId);
 }

@@ -1,6 +1,6 @@
 import "server-only";
 /**
- * Notes on a session, optionally tied to one lap (PRODUCT.md §3, §6). Who may write them (§7):
+ * Notes on a session, optionally tied to one lap. Who may write them:
  * owners and engineers on any session they see, a rider only on a session they rode (a session
  * merely shared with riders is for reading), a viewer never. The author deletes their own note,
  * the owner any note.

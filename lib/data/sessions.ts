@@ -1,5 +1,5 @@
 import "server-only";
-/** Read access to ride sessions as plain objects, with the role rules of PRODUCT.md §7 applied. */
+/** Read access to ride sessions as plain objects, with the role rules applied: a rider sees their own sessions and those shared with riders, every other role all of the team's. */
 import { Op, type WhereOptions } from "sequelize";
 import { initModels, RideSession, Rider, Bike, RaceEvent, type SessionKind, type SessionStatus } from "@/models";
 import type { TeamContext } from "@/lib/auth/guard";

@@ -3,7 +3,7 @@ import "server-only";
 import { roleCan, type TeamContext } from "@/lib/auth/guard";
 import { forbidden } from "@/lib/http/http-error";
 
-/** Engineers and owners edit tracks, bikes, engines and events (PRODUCT.md §7); others get 403. */
+/** Engineers and owners edit tracks, bikes, engines and events; others get 403. */
 export function assertCanEditSetup(ctx: TeamContext): void {
   if (!roleCan(ctx.role, { setup: ["edit"] })) throw forbidden("Only engineers and the owner change tracks, bikes, engines and events.");
 }

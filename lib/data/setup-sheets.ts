@@ -2,8 +2,8 @@ import "server-only";
 /**
  * A session's setup sheet as a chain of versions: every save adds a row with the next version
  * number, its author and time, and nothing is ever overwritten, so the team can see what the bike
- * was running in each outing and what changed between them (PRODUCT.md §3, §6). Engineers and
- * owners save (setup:edit); everyone who may see the session reads it (§7).
+ * was running in each outing and what changed between them. Engineers and
+ * owners save (setup:edit); everyone who may see the session reads it.
  */
 import { QueryTypes } from "sequelize";
 import { z } from "zod";

@@ -5,6 +5,7 @@
 import { randomBytes } from "node:crypto";
 import { QueryTypes, type Sequelize } from "sequelize";
 import type { UploadGrantStore, Uploader } from "../uploads/file-router";
+import { getSequelize } from "@/models/db";
 
 /** As long as the presigned URL (uploadthing's default is one hour) plus a resumed upload's slack. */
 export const UPLOAD_GRANT_TTL_S = 6 * 60 * 60;
@@ -37,4 +38,9 @@ export function dbUploadGrants(sequelize: () => Sequelize): UploadGrantStore {
       });
     },
   };
+}
+
+/** The app's grant store, on the app's database connection. */
+export function appUploadGrants(): UploadGrantStore {
+  return dbUploadGrants(getSequelize);
 }

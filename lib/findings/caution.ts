@@ -1,5 +1,5 @@
 /**
- * The caution every finding about brakes, suspension or engine limits carries (PRODUCT §9).
+ * The caution every finding about brakes, suspension or engine limits carries: the data shows a symptom, not a diagnosis.
  * The data shows a symptom; people with the part in their hands decide what it means.
  */
 export const CAUTION_TEXT =

@@ -24,7 +24,12 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
     if (!wheel) return NaN;
     let s = 0;
     let k = 0;
-    for (let i = a; i <= b; i++) if (Number.isFinite(wheel[i])) (s += wheel[i]), k++;
+    for (let i = a; i <= b; i++) {
+      if (Number.isFinite(wheel[i])) {
+        s += wheel[i];
+        k++;
+      }
+    }
     return k ? s / k : NaN;
   };
 

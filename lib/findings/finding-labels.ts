@@ -15,7 +15,7 @@ export const FINDING_KIND_LABEL: Record<FindingKind, string> = {
 
 export const SEVERITY_LABEL: Record<FindingSeverity, string> = { critical: "Critical", warning: "Warning", info: "Info" };
 
-/** Kinds about brakes, suspension or engine limits: these carry the caution (PRODUCT §9). */
+/** Kinds about brakes, suspension or engine limits: these carry the safety caution. */
 export const CAUTION_KINDS: ReadonlySet<string> = new Set<FindingKind>(["brake_on_straight", "rev_ceiling", "bottoming"]);
 
 export function findingKindLabel(kind: string): string {

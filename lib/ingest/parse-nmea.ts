@@ -99,7 +99,6 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
   let truncated = 0;
   let unreadable = 0;
   let spliced = 0;
-  let prefixedLines = 0;
   let badPosition = 0;
 
   const flush = () => {
@@ -154,7 +153,6 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
       return;
     }
     const inNote = line.charCodeAt(0) === 35; /* # */
-    if (first > 0 && !inNote) prefixedLines++;
     // Sentences spliced onto one line (a receiver cut off mid-sentence) are read one by one.
     const pieces = line.slice(first).split("$");
     let any = false;

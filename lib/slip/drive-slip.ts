@@ -15,7 +15,7 @@ export interface LeanCorrection {
 }
 
 export interface DriveSlipOptions {
-  /** Below this front speed the slip is NaN (m/s). Default 30 km/h (PRODUCT §5). */
+  /** Below this front speed the slip is NaN (m/s). Default 30 km/h (Lapbench default: lower down, a small wheel-speed error is a large slip). */
   minFrontSpeedMs?: number;
   /** Rear/front speed ratio that means zero slip. When omitted it is found by calibrateSlipZero. */
   zeroRatio?: number;

@@ -169,8 +169,11 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
       const b = Math.min(vBins - 1, Math.max(0, Math.floor((v + vRange) / vWidth)));
       vCounts[b]++;
       const fast = Math.abs(v) >= lowHighBoundaryMs;
-      if (v >= 0) fast ? cHigh++ : cLow++;
-      else fast ? rHigh++ : rLow++;
+      if (v >= 0) {
+        if (fast) cHigh++;
+        else cLow++;
+      } else if (fast) rHigh++;
+      else rLow++;
     }
   }
   for (let b = 0; b < bins; b++) posCounts[b] = pCount ? (100 * posCounts[b]) / pCount : 0;

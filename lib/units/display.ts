@@ -1,7 +1,7 @@
 /**
  * How stored SI values are shown to people. Everything inside Lapbench is SI (ROLE_SI_UNIT); the
  * screens show the unit the trade reads: km/h, bar, mm of travel, g. Metric only for now — the
- * per-user imperial choice (PRODUCT.md §5) adds a second table beside this one.
+ * per-user imperial choice adds a second table beside this one.
  *
  * Factors from NIST Special Publication 811 (2008), Appendix B.8, written as SI → display
  * (the inverse of the SP 811 "to convert from … to SI" factor).

@@ -3,9 +3,8 @@ import "server-only";
 import { createLogFileRouter, uploadDenied } from "./file-router";
 import { requireTeam } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
-import { registerUpload } from "@/lib/data/imports";
-import { getSequelize } from "@/models/db";
-import { dbUploadGrants } from "@/lib/data/upload-grants";
+import { registerTeamUpload } from "@/lib/data/imports";
+import { appUploadGrants } from "@/lib/data/upload-grants";
 import { storageOrigins } from "./storage-origins";
 
 export const logFileRouter = createLogFileRouter({
@@ -18,11 +17,11 @@ export const logFileRouter = createLogFileRouter({
       throw e;
     }
   },
-  grants: dbUploadGrants(getSequelize),
+  grants: appUploadGrants(),
   fileOrigins: () => storageOrigins(),
   // metadata: the uploader recorded in the grant, never the callback body.
   async onComplete({ metadata, file }) {
-    return registerUpload(getSequelize(), { teamId: metadata.teamId, userId: metadata.userId, file });
+    return registerTeamUpload({ teamId: metadata.teamId, userId: metadata.userId, file });
   },
 });
 

@@ -137,7 +137,10 @@ describe("Compare from the lap table", () => {
     const gap = arrays[meta.gap!.series[1]!];
     // The served gap both rises and falls along the lap, so both signs must be drawn.
     let up = 0, down = 0;
-    for (let i = 1; i < gap.length; i++) (gap[i] > gap[i - 1] ? up++ : gap[i] < gap[i - 1] ? down++ : 0);
+    for (let i = 1; i < gap.length; i++) {
+      if (gap[i] > gap[i - 1]) up++;
+      else if (gap[i] < gap[i - 1]) down++;
+    }
     expect(up).toBeGreaterThan(0);
     expect(down).toBeGreaterThan(0);
     for (const pane of ["inputs", "speed", "chassis", "engine"]) {

@@ -94,7 +94,7 @@ describe("engineer", () => {
     await expect(ledger.getByText("Rev-ceiling exceedances").isVisible()).resolves.toBe(true);
     await expect(ledger.textContent()).resolves.toMatch(/Engine LV-E101/);
     await expect(p.getByTestId("caution").textContent()).resolves.toMatch(/symptom, not a diagnosis.*manufacturer's service data.*technical rules.*qualified mechanics/);
-    // The tyre hint: 120/70 ZR17 → π·D = 1884 mm (REFERENCES.md, ISO 5751 / ETRTO practice, memory).
+    // The tyre hint: 120/70 ZR17 → π·D = 1884 mm (ISO 5751 / ETRTO practice, from memory).
     await expect(p.getByTestId("tyre-calculator").textContent()).resolves.toMatch(/120\/70 ZR17 → nominal 1884 mm/);
     await shot(p, "bike-engine-ledger-engineer");
 

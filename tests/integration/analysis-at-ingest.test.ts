@@ -123,7 +123,7 @@ describe("three-lap sample logs: laps, sectors and findings at ingest", () => {
   it.each([
     // 20 Hz GPS: fixes every ~4 m at the line; interpolated crossings land within a few ms.
     ["three-laps-20hz.csv", 5],
-    // 10 Hz GPS (REFERENCES.md gate arithmetic: fixes 5.6 m apart at 200 km/h): within 20 ms.
+    // 10 Hz GPS (plain arithmetic: 200 km/h = 55.556 m/s, fixes 5.6 m apart): within 20 ms.
     ["three-laps-10hz.csv", 20],
   ] as const)("%s: laps, flags and times as the generator's truth (lap time ±%d ms)", async (file, tolMs) => {
     const truth = truthOf(file.replace(/\.csv$/, ".truth.json"));
@@ -182,7 +182,7 @@ describe("three-lap sample logs: laps, sectors and findings at ingest", () => {
         expect(haversineM(f.lat!, f.lon!, ll.lat, ll.lon), `${e.kind} position`).toBeLessThan(12);
       }
       expect(f.thresholdValue).toBeCloseTo(e.limit.value, 6);
-      // PRODUCT §9: brake, suspension and engine findings carry the caution; pit speed does not.
+      // Brake, suspension and engine findings carry the safety caution; pit speed does not.
       if (e.kind === "brake_on_straight" || e.kind === "rev_ceiling") expect(f.message.endsWith(CAUTION_TEXT)).toBe(true);
       else expect(f.message).not.toContain(CAUTION_TEXT);
     }

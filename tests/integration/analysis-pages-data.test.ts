@@ -7,7 +7,11 @@ import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import fs from "node:fs";
 import path from "node:path";
 import { getSequelize } from "@/models/db";
-import { initModels } from "@/models";
+import { initModels, RideSession } from "@/models";
+import { slipForViewer, suspensionForViewer, gearsForViewer, briefForViewer } from "@/lib/data/viewer-analyses";
+import { HttpError } from "@/lib/http/http-error";
+import type { TeamContext } from "@/lib/auth/guard";
+import type { TeamRole } from "@/lib/auth/permissions";
 import { slipAnalysis, suspensionAnalysis, gearAnalysis, riderBrief, BRIEF_BRAKE_THRESHOLD_PA } from "@/lib/data/analysis";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
@@ -166,5 +170,35 @@ describe("Gears", () => {
     expect(g.rows.filter((r) => r.gear >= 1 && r.timeS > 0).length).toBeGreaterThanOrEqual(5);
     expect(g.upshifts).toBeGreaterThan(20);
     expect(g.clutchlessUpshifts).toBeGreaterThan(0);
+  });
+});
+
+describe("the analyses as the caller sees them", () => {
+  const ctxOf = (t: TestTeam, role: TeamRole): TeamContext => {
+    const m = t.members[role];
+    return { teamId: t.teamId, teamName: "t", teamSlug: "t", role, userId: m.userId, userName: role, email: m.email, memberships: [] };
+  };
+  const status = (p: Promise<unknown>) => p.then(() => 200, (e: unknown) => (e instanceof HttpError ? e.status : -1));
+  const all = (ctx: TeamContext) => [slipForViewer(ctx, sessionId), suspensionForViewer(ctx, sessionId), gearsForViewer(ctx, sessionId), briefForViewer(ctx, sessionId)];
+
+  it("a member who may see the session gets the same result as the stored analysis", async () => {
+    const [slip, susp, gears, brief] = await Promise.all(all(ctxOf(team, "viewer")));
+    expect(slip).toEqual(await slipAnalysis(getSequelize(), sessionId));
+    expect(susp).toEqual(await suspensionAnalysis(getSequelize(), sessionId));
+    expect(gears).toEqual(await gearAnalysis(getSequelize(), sessionId));
+    expect(brief).toEqual(await riderBrief(getSequelize(), sessionId));
+  });
+
+  it("another team's member and a rider the session is neither about nor shared with get 404", async () => {
+    const other = await createTeamWithRoles("Other analysis team");
+    expect(await Promise.all(all(ctxOf(other, "owner")).map(status))).toEqual([404, 404, 404, 404]);
+    const row = await RideSession.findByPk(sessionId);
+    expect(row!.riderId).toBeNull();
+    await row!.update({ sharedWithRiders: false });
+    expect(await Promise.all(all(ctxOf(team, "rider")).map(status))).toEqual([404, 404, 404, 404]);
+    // Shared with riders: the rider sees it.
+    await row!.update({ sharedWithRiders: true });
+    expect(await Promise.all(all(ctxOf(team, "rider")).map(status))).toEqual([200, 200, 200, 200]);
+    await row!.update({ sharedWithRiders: false });
   });
 });

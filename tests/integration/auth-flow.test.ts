@@ -2,7 +2,7 @@
  * Lapbench's auth options end to end on the migrated test database (real MariaDB, real SMTP
  * exchange with a local smtp-server): sign-up, sign-in, teams and roles, invitation and
  * password-reset e-mails, and the sign-in rate limit through the HTTP handler.
- * The role expectations are the table in PRODUCT.md §7.
+ * The role expectations are the team role table (lib/auth/permissions.ts), spelled out below.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { QueryTypes, type Sequelize } from "sequelize";
@@ -118,7 +118,7 @@ describe("teams and roles", () => {
     for (const role of teamRoles) expect(roleOf[people[role].userId], role).toBe(role);
   });
 
-  // PRODUCT.md §7: team/members/roles/deleting data — owner only; upload, edit setup data and
+  // The role table: team/members/roles/deleting data — owner only; upload, edit setup data and
   // acknowledge findings — owner and engineer; notes — owner, engineer, rider (own sessions);
   // viewer — read-only.
   const cases: Array<[string, Record<string, string[]>, TeamRole[]]> = [

@@ -1,6 +1,7 @@
 /**
  * The role guard over every API route that exists, against the real MariaDB: no session → 401,
- * each role gets what the role rules (lib/auth/permissions.ts) allow, and another team's resources answer 404.
+ * each role gets what the role table allows (owner: team and members; owner and engineer:
+ * upload and setup data; rider: their own and shared sessions; viewer: read-only), and another team's resources answer 404.
  */
 import { describe, it, expect, beforeAll } from "vitest";
 import fs from "node:fs";
@@ -85,7 +86,7 @@ describe("every API route refuses a request without a session", () => {
   });
 });
 
-describe("roles see what the role rules allow", () => {
+describe("roles see what the role table allows", () => {
   it.each(ROLES)("%s reads the team with their role", async (role) => {
     const res = await teamApiRoute.GET(req("/api/team", a.members[role].cookie), params({}));
     expect(res.status).toBe(200);

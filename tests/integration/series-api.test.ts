@@ -194,7 +194,7 @@ describe("series values", () => {
     expect(x[x.length - 1]).toBeCloseTo(meta.laps[0].lengthM, 6);
     for (const i of [1, 2]) {
       const g = arrays[meta.gap!.series[i]!];
-      // Running gap = time(B) − time(A) at equal distance (PRODUCT.md §5); at the full lap both
+      // Running gap = time(B) − time(A) at equal distance; at the full lap both
       // have covered it, so by definition it is the lap-time difference. Float32 storage: µs.
       expect(Math.abs(g[g.length - 1] * 1000 - (flying[i].lapTimeMs - flying[0].lapTimeMs))).toBeLessThan(1);
       expect(g[0]).toBeCloseTo(0, 6);

@@ -2,7 +2,7 @@
  * Setup sheets and session notes through their server actions and lib/data, against the real
  * MariaDB with real better-auth users of every role: saving a sheet adds a version and keeps the
  * old ones, only engineers and the owner save, another team's session is a 404, bad fields come
- * back one message each; notes follow PRODUCT.md §7 (a rider writes on sessions they rode, not on
+ * back one message each; notes follow the role rules (a rider writes on sessions they rode, not on
  * ones merely shared with them; a viewer never) and the delete rules (author, or the owner).
  * Only Next's request plumbing is replaced (headers, revalidation).
  */

@@ -1,9 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { initModels } from "@/models";
 import { pageTeam } from "@/lib/auth/page-guard";
 import { listBriefSessions } from "@/lib/data/brief-sessions";
-import { riderBrief } from "@/lib/data/analysis";
+import { briefForViewer } from "@/lib/data/viewer-analyses";
 import { BriefView } from "@/components/brief/brief-view";
 
 export const metadata: Metadata = { title: "Rider brief" };
@@ -30,7 +29,7 @@ export default async function BriefPage({ searchParams }: { searchParams: Promis
       </div>
       {chosen ? (
         <BriefView
-          brief={await riderBrief(initModels(), chosen.id, { lap: sp.lap ? Number(sp.lap) : null })}
+          brief={await briefForViewer(ctx, chosen.id, { lap: sp.lap ? Number(sp.lap) : null })}
           sessions={sessions}
           isRider={isRider}
           basePath={(id, lap) => `/brief?session=${id}${lap != null ? `&lap=${lap}` : ""}`}

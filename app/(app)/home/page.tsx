@@ -5,6 +5,9 @@ import { roleCan } from "@/lib/auth/guard";
 import { RecentSessions } from "@/components/sessions/recent-sessions";
 import { FindingsToReview } from "@/components/findings/findings-to-review";
 import { EngineMarks } from "@/components/record/engine-marks";
+import { listRecentSessions } from "@/lib/data/sessions";
+import { listFindingsToReview } from "@/lib/data/findings";
+import { enginesNearingRebuild } from "@/lib/data/engine-season";
 
 export const metadata: Metadata = { title: "Team home" };
 
@@ -25,17 +28,17 @@ export default async function HomePage() {
             {ctx.role === "rider" ? "Your sessions" : "Recent sessions"}
           </h2>
           <Suspense fallback={<div className="h-24 animate-pulse rounded bg-ink-850" />}>
-            <RecentSessions ctx={ctx} canUpload={canUpload} />
+            <RecentSessions sessions={listRecentSessions(ctx)} canUpload={canUpload} isRider={ctx.role === "rider"} />
           </Suspense>
         </section>
         <aside className="space-y-6">
           <Suspense fallback={null}>
-            <EngineMarks ctx={ctx} />
+            <EngineMarks near={ctx.role === "owner" || ctx.role === "engineer" ? enginesNearingRebuild(ctx) : null} />
           </Suspense>
           <section className="card" aria-labelledby="findings">
             <h2 id="findings" className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-300">Findings to review</h2>
             <Suspense fallback={<div className="h-16 animate-pulse rounded bg-ink-850" />}>
-              <FindingsToReview ctx={ctx} />
+              <FindingsToReview items={listFindingsToReview(ctx, { limit: 8 })} />
             </Suspense>
           </section>
           <section className="card" aria-labelledby="you">

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { getMailPreferences } from "@/lib/data/mail-preferences";
 import { pageTeam } from "@/lib/auth/page-guard";
 import { roleCan } from "@/lib/auth/guard";
 import { getThresholdSettings, type ThresholdOwner } from "@/lib/data/thresholds";
@@ -28,7 +29,7 @@ export default async function SettingsPage() {
         <p className="text-xs font-semibold uppercase tracking-wider text-trace-400">{ctx.teamName}</p>
         <h1 className="text-2xl font-semibold">Settings</h1>
       </div>
-      <MailPreferencesSection ctx={ctx} />
+      <MailPreferencesSection prefs={await getMailPreferences(ctx)} role={ctx.role} />
       <section className="space-y-3" aria-labelledby="th">
         <h2 id="th" className="text-sm font-semibold uppercase tracking-wide text-ink-300">Findings thresholds</h2>
         <p className="max-w-3xl text-sm text-ink-300">

@@ -8,8 +8,8 @@ import { readSampleCsv } from "../findings/read-sample-csv";
 /**
  * Braking points and corners on the generated three-lap sample log, against the generator's
  * ground truth (invented circuit and data). Lap distance here is the front wheel speed
- * integrated from the lap's start and rescaled to the lap's true length, as PRODUCT §5 does
- * with the GPS length.
+ * integrated from the lap's start and rescaled to the lap's true length, as the lap distance
+ * channel does with the GPS length.
  */
 const CSV = path.resolve(__dirname, "../../../sample-logs/files/three-laps-20hz.csv");
 

@@ -5,7 +5,7 @@ import { engineUsage } from "@/lib/engine/engine-usage";
 import { engineLedger } from "@/lib/engine/engine-ledger";
 import { CAUTION_TEXT } from "@/lib/findings/caution";
 
-describe("powerKw — P = T·ω, kW = N·m·rpm/9549.297 (REFERENCES.md: 60 000/2π)", () => {
+describe("powerKw — P = T·ω, kW = N·m·rpm/9549.297 (P = T·ω, 60 000/2π: SI definitions)", () => {
   it.each([
     [100, 9549.297, 100],
     [1, 60000 / (2 * Math.PI), 1],
@@ -16,7 +16,7 @@ describe("powerKw — P = T·ω, kW = N·m·rpm/9549.297 (REFERENCES.md: 60 000/
   });
 });
 
-describe("powerHpFromLbfFt — hp = lbf·ft·rpm/5252.113 (REFERENCES.md: 33 000/2π)", () => {
+describe("powerHpFromLbfFt — hp = lbf·ft·rpm/5252.113 (1 hp = 33 000 ft·lbf/min, NIST SP 811 B.8; 33 000/2π)", () => {
   it.each([
     // At 5252.113 rpm torque in lbf·ft equals horsepower (the relation's own worked example).
     [100, 5252.113, 100],

@@ -165,7 +165,7 @@ describe("thresholds", () => {
     // No rev ceiling is assumed (a class's figure is set on the bike).
     expect("revCeilingRpm" in DEFAULT_THRESHOLDS).toBe(false);
   });
-  it("the caution says symptom not diagnosis, inspect, and who does the work (PRODUCT §9)", () => {
+  it("the caution says symptom not diagnosis, inspect, and who does the work (service data, technical rules, qualified mechanics)", () => {
     expect(CAUTION_TEXT).toMatch(/symptom, not a diagnosis/);
     expect(CAUTION_TEXT).toMatch(/Inspect the part before the bike goes out again/);
     expect(CAUTION_TEXT).toMatch(/manufacturer's service data.*technical rules.*qualified mechanics/);

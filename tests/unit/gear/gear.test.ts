@@ -5,9 +5,9 @@ import { gearFromRatios } from "@/lib/gear/gear-from-ratios";
 import { timeInGear } from "@/lib/gear/time-in-gear";
 import { shiftEvents } from "@/lib/gear/shift-events";
 
-describe("nominalTyreCircumferenceM — D = 25.4·rim + 2·width·aspect/100 (ISO 5751 / ETRTO practice, memory; REFERENCES.md)", () => {
+describe("nominalTyreCircumferenceM — D = 25.4·rim + 2·width·aspect/100 (ISO 5751 / ETRTO practice, from memory)", () => {
   it.each([
-    // [width, aspect, rim, D mm, π·D mm] from REFERENCES.md
+    // [width, aspect, rim, D mm, π·D mm]: ISO 5751 tyre arithmetic
     [190, 55, 17, 640.8, 2013.1],
     [120, 70, 17, 599.8, 1884.3],
   ])("%d/%d ZR%d → D %d mm, circumference %d mm", (w, a, rim, dMm, cMm) => {
@@ -23,7 +23,7 @@ const BIKE = {
   gearboxRatios: [2.6, 2.0, 1.65, 1.42, 1.27, 1.16],
   sprocketFront: 16,
   sprocketRear: 40,
-  rearCircumferenceM: 2.0131, // π·640.8 mm (REFERENCES.md tyre arithmetic)
+  rearCircumferenceM: 2.0131, // π·640.8 mm (ISO 5751 tyre arithmetic, 190/55 ZR17)
 };
 
 /** v = rpm / overall / 60 · C (rev/min → rev/s → m/s), hand arithmetic. */

@@ -6,7 +6,7 @@ import { segmentIntersection, sideOfLine } from "@/lib/geo/segment-intersection"
 import { toLocalMetres } from "@/lib/geo/to-local-metres";
 
 describe("segmentIntersection", () => {
-  it("gives u = d0/(d0+d1): fixes 2.000 m before and 3.556 m after the line (REFERENCES.md gate arithmetic)", () => {
+  it("gives u = d0/(d0+d1): fixes 2.000 m before and 3.556 m after the line (plain arithmetic)", () => {
     // Gate along the y axis from (0,-5) to (0,5); path along x from −2.000 to +3.556.
     const hit = segmentIntersection(-2, 0.3, 3.556, 0.3, 0, -5, 0, 5);
     expect(hit).not.toBeNull();

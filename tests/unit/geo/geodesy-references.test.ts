@@ -13,14 +13,14 @@ describe("geolib against published geodesic references", () => {
     expect(Math.abs(getPreciseDistance(flinders, buninyong, 0.001) - 54972.271)).toBeLessThanOrEqual(0.001);
   });
 
-  it("getDistance (sphere, R = 6 378 137 m) is ≈ 54 987 m, +0.027 % over the ellipsoid (REFERENCES.md)", () => {
+  it("getDistance (sphere, R = 6 378 137 m) is ≈ 54 987 m, +0.027 % over the ellipsoid (Vincenty 1975 worked example; geolib docs: spherical, equatorial radius)", () => {
     const d = getDistance(flinders, buninyong);
     expect(Math.abs(d - 54987)).toBeLessThanOrEqual(2);
     expect((d - 54972.271) / 54972.271).toBeCloseTo(0.00027, 4);
   });
 
   it("geolib's own test values: Berlin-area → Dortmund-area points (421 786 m / 422 592 m)", () => {
-    // geolib test suite values (quoted in REFERENCES.md).
+    // geolib's own test suite values (getDistance / getPreciseDistance).
     const a = { lat: 52.518611, lon: 13.408056 };
     const b = { lat: 51.519475, lon: 7.46694444 };
     expect(getDistance(a, b)).toBe(421786);

@@ -1,5 +1,5 @@
 /**
- * Nominal tyre size from the sidewall marking. Reference values: REFERENCES.md "Tyres",
+ * Nominal tyre size from the sidewall marking. Reference formula:
  * D = 25.4·rim + 2·width·aspect/100 (ISO 5751 / ETRTO practice — formula recalled from memory,
  * the standards are not open); the worked figures below are plain arithmetic on it.
  */
@@ -8,7 +8,7 @@ import { tyreSize } from "@/lib/bike/tyre-size";
 
 describe("tyreSize", () => {
   it.each([
-    // marking, D (mm), π·D (mm) — REFERENCES.md (ISO 5751 / ETRTO practice, memory)
+    // marking, D (mm), π·D (mm) — ISO 5751 / ETRTO practice (formula from memory), plain arithmetic
     ["190/55 ZR17", 640.8, 2013.1],
     ["120/70 ZR17", 599.8, 1884.3],
     // plain arithmetic on the same formula: 25.4·17 + 2·200·55/100 = 431.8 + 220 = 651.8

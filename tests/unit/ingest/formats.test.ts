@@ -121,7 +121,7 @@ describe("GPX 1.1", () => {
   });
 
   it("derives speed from positions when the file has none: 0.0001° of latitude per second at 45°N ≈ 11.1 m/s", async () => {
-    // Memory, not from REFERENCES.md: one degree of latitude at 45° is about 111.13 km on WGS-84.
+    // From memory: one degree of latitude at 45° is about 111.13 km on WGS-84.
     const s = await load("track.gpx");
     for (const v of channel(s, "gps_speed").values) expect(v).toBeCloseTo(11.113, 1);
   });

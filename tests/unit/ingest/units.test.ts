@@ -24,7 +24,7 @@ describe("unit factors against NIST SP 811 (2008), Appendix B", () => {
     [INCH_TO_M, 0.0254, 0, "inch → m, exact (B.8)"],
     [PSI_TO_PA, 6894.757, 0.0005, "psi → Pa, 6.894 757 E+03 (B.8)"],
     [STANDARD_GRAVITY_MPS2, 9.80665, 0, "standard acceleration of gravity, exact (B.8)"],
-    // Memory (not in REFERENCES.md): SP 811 B.8 lists knot = 5.144 444 E-01 m/s (1852 m per hour).
+    // From memory: NIST SP 811 B.8 lists knot = 5.144 444 E-01 m/s (1852 m per hour).
     [KNOT_TO_MPS, 0.5144444, 5e-8, "knot → m/s (B.8, memory)"],
   ] as const)("%s ≈ %s (%s)", (factor, nist, tol, _what) => {
     expect(Math.abs(factor - nist)).toBeLessThanOrEqual(tol);

@@ -15,10 +15,10 @@ function fixesAt(xs: number[], ts: number[]) {
 }
 
 describe("findGateCrossings", () => {
-  it("interpolates t* = t0 + u·Δt: 2.000 m before, 3.556 m after, Δt 0.1 s → t0 + 0.036 s (REFERENCES.md gate arithmetic)", () => {
+  it("interpolates t* = t0 + u·Δt: 2.000 m before, 3.556 m after, Δt 0.1 s → t0 + 0.036 s (plain arithmetic)", () => {
     const c = findGateCrossings(fixesAt([-2.0, 3.556], [10, 10.1]), GATES.startFinish);
     expect(c).toHaveLength(1);
-    // 0.1 · 2/5.556 = 0.035997… s, which REFERENCES.md rounds to 0.036 s.
+    // 0.1 · 2/5.556 = 0.035997… s, which rounds to 0.036 s.
     expect(c[0].timeS - 10).toBeCloseTo(0.036, 4);
     expect(Math.abs(c[0].timeS - 10 - (0.1 * 2) / 5.556)).toBeLessThan(1e-9);
     expect(c[0].direction).toBe(1);
@@ -35,7 +35,7 @@ describe("findGateCrossings", () => {
   });
 
   it("without interpolation a 10 Hz crossing at 200 km/h could be up to 100 ms late; with it the error is ~0", () => {
-    // 200 km/h = 55.556 m/s → 5.556 m between fixes (REFERENCES.md). True crossing at t = 1.000 s.
+    // 200 km/h = 55.556 m/s → 5.556 m between fixes at 10 Hz (plain arithmetic). True crossing at t = 1.000 s.
     const v = 200 / 3.6;
     const ts = [0.93, 1.03];
     const c = findGateCrossings(fixesAt(ts.map((t) => (t - 1) * v), ts), GATES.startFinish);

@@ -70,7 +70,7 @@ describe("a GPS gap at the start/finish line", () => {
     const lap2 = g.truth.laps.find((l) => l.number === 2)!;
     const lat = s.channels.gps_lat!;
     const lon = s.channels.gps_lon!;
-    for (let i = 0; i < s.timeS.length; i++) if (Math.abs(s.timeS[i] - lap2.endS) < 2) (lat[i] = NaN), (lon[i] = NaN);
+    for (let i = 0; i < s.timeS.length; i++) if (Math.abs(s.timeS[i] - lap2.endS) < 2) lat[i] = lon[i] = NaN;
     const a = analyseSeries(s, { gates }, null);
     const long = a.laps.filter((l) => l.suspect);
     expect(long).toHaveLength(1);
@@ -131,7 +131,7 @@ describe("a missed pit-exit crossing", () => {
     for (let i = 0; i < n; i++) {
       const a = (((i === 0 ? 0 : 1) * 0 + ((Math.atan2((lat[i] - lat0) * M_PER_DEG, (lon[i] - lon0) * M_PER_DEG * Math.cos((lat0 * Math.PI) / 180)) * 180) / Math.PI)) + 360) % 360;
       speed[i] = a >= 10 && a < 40 ? 15 : 60;
-      if (Math.abs(timeS[i] - exitTime) < 2) (lat[i] = NaN), (lon[i] = NaN);
+      if (Math.abs(timeS[i] - exitTime) < 2) lat[i] = lon[i] = NaN;
     }
     const series = { timeS, channels: { gps_lat: lat, gps_lon: lon, speed_front: speed } };
     const gates: TrackGates = { startFinish: gate(180), sectors: [], pitEntry: gate(10), pitExit: gate(40) };
@@ -155,7 +155,10 @@ describe("GPS sanity", () => {
     const lat = s.channels.gps_lat!;
     const lon = s.channels.gps_lon!;
     let zeroed = 0;
-    for (let i = 0; i < lat.length && zeroed < 5; i++) if (Number.isFinite(lat[i]) && s.timeS[i] > 200) (lat[i] = 0), (lon[i] = 0), zeroed++;
+    for (let i = 0; i < lat.length && zeroed < 5; i++) if (Number.isFinite(lat[i]) && s.timeS[i] > 200) {
+      lat[i] = lon[i] = 0;
+      zeroed++;
+    }
     expect(extractFixes(s).timeS.length).toBe(before - 5);
     // No jump to the Gulf of Guinea and back.
     expect(runFindings(s, {}).filter((x) => x.kind === "gps_jump")).toHaveLength(0);

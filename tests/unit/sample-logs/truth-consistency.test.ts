@@ -29,7 +29,7 @@ describe("circuit", () => {
   });
 
   it("centreline length measured with geolib matches the stated length", () => {
-    // geolib getDistance: spherical, R = 6 378 137 m (REFERENCES.md) — an outside library.
+    // geolib getDistance: spherical, R = 6 378 137 m (geolib docs) — an outside library.
     let sum = 0;
     const c = CIRCUIT.centreline;
     for (let i = 1; i < c.length; i++) sum += getDistance(c[i - 1], c[i], 0.001);
@@ -54,7 +54,7 @@ describe("laps", () => {
   });
 
   it("GPS lap distance (sum of geolib distances between fixes) is the track length within 1.5 %", () => {
-    // Outside reference: geolib.getDistance between consecutive fixes (REFERENCES.md).
+    // Outside reference: geolib.getDistance between consecutive fixes (spherical, R = 6 378 137 m).
     const lat = col("gps_lat"), lon = col("gps_lon");
     for (const l of s.truth.laps.filter((x) => x.kind === "flying")) {
       let sum = 0;
@@ -104,7 +104,7 @@ describe("laps", () => {
 
 describe("bike channels", () => {
   it("rpm = rear wheel speed / rolling circumference × overall ratio × 60", () => {
-    // Tyre arithmetic (REFERENCES.md, ISO 5751 practice, memory): D = 25.4·rim + 2·width·aspect/100.
+    // Tyre arithmetic (ISO 5751 / ETRTO practice, from memory): D = 25.4·rim + 2·width·aspect/100.
     const nominalRear = Math.PI * (25.4 * 17 + (2 * 190 * 55) / 100);
     const nominalFront = Math.PI * (25.4 * 17 + (2 * 120 * 70) / 100);
     expect(nominalRear).toBeCloseTo(2013.1, 1);

@@ -14,7 +14,7 @@ const KMH = 1 / 3.6; // NIST SP 811 App. B: km/h → m/s = 1/3.6 (exact)
 describe("slipRatio — SAE J670 / ISO 8855 / Pacejka ch.1 longitudinal slip, front wheel as ground reference (formula from memory; standards not open)", () => {
   it.each([
     // [rear km/h, front km/h, expected, source]
-    [110, 100, 0.1, "REFERENCES.md worked case: front 100, rear 110 → 0.10 (divide by the reference/ground speed, not 10/110)"],
+    [110, 100, 0.1, "SAE J670 slip ratio worked case (formula from memory): front 100, rear 110 → 0.10 (divide by the reference/ground speed, not 10/110)"],
     [100, 100, 0, "free rolling: Ω·re = Vx → 0 (definition)"],
     [0, 100, -1, "locked rear wheel → −1 (SAE J670 definition)"],
     [90, 100, -0.1, "braking: negative (definition)"],
@@ -106,7 +106,7 @@ describe("calibrateSlipZero and driveSlip", () => {
     expect(slip[100]).toBeCloseTo(0.02, 6);
   });
 
-  it("gives NaN below 30 km/h front speed (PRODUCT §5)", () => {
+  it("gives NaN below 30 km/h front speed (Lapbench default)", () => {
     const s = makeSeries({ mismatch: 0 });
     s.channels.speed_front![10] = 29 * KMH;
     s.channels.speed_front![11] = 31 * KMH;

@@ -5,7 +5,7 @@ import { sampleStandardDeviation } from "@/lib/stats/sample-standard-deviation";
 import { summarizeFinite } from "@/lib/stats/summarize-finite";
 
 // NIST Statistical Reference Datasets, univariate summary statistics (public domain), certified
-// values as listed in REFERENCES.md. Data built from NIST's description of each set.
+// values from NIST's StRD univariate pages (NumAcc1, NumAcc2). Data built from NIST's description of each set.
 // Lew, Michelso and Mavro are not tested: their 200/100/50 data values are only in NIST's .dat
 // files, which are not available here, and we do not type them in from memory.
 const NUMACC1 = [10000001, 10000003, 10000002];

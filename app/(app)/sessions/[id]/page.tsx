@@ -23,6 +23,9 @@ import { DuplicateChoice } from "@/components/session/duplicate-choice";
 import { getHeldDuplicate, getSessionTrackPanel } from "@/lib/data/session-track";
 import { SessionTrack } from "@/components/session/session-track";
 import { SessionRecord } from "@/components/record/session-record";
+import { listSessionFindings } from "@/lib/data/findings";
+import { listSessionLaps } from "@/lib/data/laps";
+import { listSessionActivity } from "@/lib/data/activity-log";
 
 export const metadata: Metadata = { title: "Session" };
 
@@ -76,10 +79,10 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
             </section>
           )}
           <Suspense fallback={block}>
-            <SessionFindings sessionId={s.id} teamId={ctx.teamId} canAcknowledge={canAcknowledge} />
+            <SessionFindings data={listSessionFindings(ctx, s.id)} canAcknowledge={canAcknowledge} />
           </Suspense>
           <Suspense fallback={block}>
-            <SessionLaps sessionId={s.id} teamId={ctx.teamId} />
+            <SessionLaps data={listSessionLaps(ctx, s.id)} />
           </Suspense>
           <section className="card" aria-labelledby="channels">
             <h2 id="channels" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-300">Channels</h2>
@@ -119,7 +122,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
       <SetupSheet view={setup} />
       <SessionNotes view={notes} />
       <Suspense fallback={block}>
-        <SessionRecord ctx={ctx} sessionId={s.id} />
+        <SessionRecord entries={listSessionActivity(ctx, s.id)} sessionId={s.id} />
       </Suspense>
     </div>
   );

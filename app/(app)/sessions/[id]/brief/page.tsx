@@ -1,8 +1,7 @@
 import type { Metadata } from "next";
-import { initModels } from "@/models";
-import { riderBrief } from "@/lib/data/analysis";
+import { briefForViewer } from "@/lib/data/viewer-analyses";
 import { listBriefSessions } from "@/lib/data/brief-sessions";
-import { viewerSession } from "@/components/analysis/viewer-session";
+import { viewerSession } from "@/lib/auth/viewer-session";
 import { AnalysisHeader } from "@/components/analysis/analysis-header";
 import { BriefView } from "@/components/brief/brief-view";
 
@@ -12,7 +11,7 @@ export default async function SessionBriefPage({ params, searchParams }: { param
   const { id } = await params;
   const sp = await searchParams;
   const { ctx, session } = await viewerSession(id, `/sessions/${id}/brief`);
-  const [brief, sessions] = await Promise.all([riderBrief(initModels(), session.id, { lap: sp.lap ? Number(sp.lap) : null }), listBriefSessions(ctx)]);
+  const [brief, sessions] = await Promise.all([briefForViewer(ctx, session.id, { lap: sp.lap ? Number(sp.lap) : null }), listBriefSessions(ctx)]);
   return (
     <div className="space-y-6">
       <AnalysisHeader title="Rider brief" session={session} current="brief" />

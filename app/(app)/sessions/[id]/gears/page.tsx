@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
-import { initModels } from "@/models";
-import { gearAnalysis } from "@/lib/data/analysis";
-import { viewerSession } from "@/components/analysis/viewer-session";
+import { gearsForViewer } from "@/lib/data/viewer-analyses";
+import { viewerSession } from "@/lib/auth/viewer-session";
 import { AnalysisHeader } from "@/components/analysis/analysis-header";
 import { CautionNote } from "@/components/analysis/caution-note";
 
@@ -9,8 +8,8 @@ export const metadata: Metadata = { title: "Gears" };
 
 export default async function GearsPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const { session } = await viewerSession(id, `/sessions/${id}/gears`);
-  const g = await gearAnalysis(initModels(), session.id);
+  const { ctx, session } = await viewerSession(id, `/sessions/${id}/gears`);
+  const g = await gearsForViewer(ctx, session.id);
   const maxPct = Math.max(1, ...g.rows.map((r) => r.pct));
   return (
     <div className="space-y-6">

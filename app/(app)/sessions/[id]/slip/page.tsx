@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
-import { initModels } from "@/models";
-import { slipAnalysis } from "@/lib/data/analysis";
-import { viewerSession } from "@/components/analysis/viewer-session";
+import { slipForViewer } from "@/lib/data/viewer-analyses";
+import { viewerSession } from "@/lib/auth/viewer-session";
 import { AnalysisHeader, LapLinks } from "@/components/analysis/analysis-header";
 import { CautionNote } from "@/components/analysis/caution-note";
 import { SlipChart } from "@/components/analysis/slip-chart";
@@ -14,10 +13,10 @@ const pct = (x: number | null | undefined, d = 1) => (x == null || !Number.isFin
 export default async function DriveSlipPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ lap?: string; lean?: string }> }) {
   const { id } = await params;
   const sp = await searchParams;
-  const { session } = await viewerSession(id, `/sessions/${id}/slip`);
+  const { ctx, session } = await viewerSession(id, `/sessions/${id}/slip`);
   const lean = sp.lean === "1";
   const lapParam = sp.lap ? Number(sp.lap) : null;
-  const a = await slipAnalysis(initModels(), session.id, { lap: lapParam, lean });
+  const a = await slipForViewer(ctx, session.id, { lap: lapParam, lean });
   const href = (lap: number | null, leanOn = lean) => `/sessions/${session.id}/slip?${new URLSearchParams({ ...(lap != null ? { lap: String(lap) } : {}), ...(leanOn ? { lean: "1" } : {}) })}`;
   const cornerNames = a.exits[0]?.exits.map((e) => e.name) ?? [];
   return (

@@ -1,9 +1,9 @@
 import type { Metadata } from "next";
-import { initModels } from "@/models";
-import { suspensionAnalysis, SG_WINDOWS, type SuspensionAnalysis, type SuspensionSide } from "@/lib/data/analysis";
+import { SG_WINDOWS, type SuspensionAnalysis, type SuspensionSide } from "@/lib/data/analysis";
 import { DEFAULT_LOW_HIGH_BOUNDARY_MS, DEFAULT_VELOCITY_WINDOW_MS } from "@/lib/suspension/suspension-use";
 import { getSessionForViewer } from "@/lib/data/session-detail";
-import { viewerSession } from "@/components/analysis/viewer-session";
+import { suspensionForViewer } from "@/lib/data/viewer-analyses";
+import { viewerSession } from "@/lib/auth/viewer-session";
 import { AnalysisHeader } from "@/components/analysis/analysis-header";
 import { CautionNote } from "@/components/analysis/caution-note";
 import { HistogramSvg } from "@/components/analysis/histogram-svg";
@@ -22,14 +22,14 @@ export default async function SuspensionPage({ params, searchParams }: { params:
   const window = num(sp.window) ?? DEFAULT_VELOCITY_WINDOW_MS;
   const boundaryMms = num(sp.boundary) ?? DEFAULT_LOW_HIGH_BOUNDARY_MS * 1000;
   const opts = { window, boundaryMs: boundaryMms / 1000 };
-  const sequelize = initModels();
-  const a = await suspensionAnalysis(sequelize, session.id, { ...opts, lap: num(sp.lap) });
+  const a = await suspensionForViewer(ctx, session.id, { ...opts, lap: num(sp.lap) });
   // The second column: another lap of this session, or a lap (or all) of another visible session.
   let b: (SuspensionAnalysis & { title: string }) | null = null;
   const cmpSessionId = num(sp.cmpSession);
   if (cmpSessionId != null || num(sp.cmpLap) != null) {
+    // A session the caller may not see (or that is gone) leaves the second column empty.
     const other = cmpSessionId != null && cmpSessionId !== session.id ? await getSessionForViewer(ctx, cmpSessionId).catch(() => null) : session;
-    if (other) b = { ...(await suspensionAnalysis(sequelize, other.id, { ...opts, lap: num(sp.cmpLap) })), title: other.title };
+    if (other) b = { ...(await suspensionForViewer(ctx, other.id, { ...opts, lap: num(sp.cmpLap) })), title: other.title };
   }
   const others = (await listRecentSessions(ctx, 30)).filter((s) => s.status === "ready");
   return (

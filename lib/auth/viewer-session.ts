@@ -5,7 +5,10 @@ import { getSessionForViewer, type SessionDetail } from "@/lib/data/session-deta
 import type { TeamContext } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
 
-/** The signed-in member and a session they may see (PRODUCT §7), or the 404 page. */
+/**
+ * The signed-in member and a session they may see, or the 404 page: the session must be in their
+ * team, and a rider sees only their own sessions and the ones shared with riders.
+ */
 export async function viewerSession(idParam: string, from: string): Promise<{ ctx: TeamContext; session: SessionDetail }> {
   const ctx = await pageTeam({}, from);
   const id = Number(idParam);

@@ -8,6 +8,7 @@ import { isFlyingLap } from "@/lib/laps/types";
 import { lowerBound } from "@/lib/laps/lower-bound";
 import { brakingPoints, type BrakingPoint } from "@/lib/braking/braking-points";
 import { compareBraking, type BrakingDifference } from "@/lib/braking/compare-braking";
+import { alignToReference } from "@/lib/braking/align-to-reference";
 import { driveSlip } from "@/lib/slip/drive-slip";
 import { calibrateSlipZero } from "@/lib/slip/calibrate-slip-zero";
 import { spinEvents } from "@/lib/slip/spin-events";
@@ -419,7 +420,10 @@ function briefCore(base: AnalysisBase): BriefCore {
   const kmh = (ms: number | null | undefined) => (ms == null || !Number.isFinite(ms) ? null : Math.round(ms * 3.6));
   const braking = (shown: Lap): LapBraking => {
     const cur = shown === bestLap ? ref : lapPoints(shown);
-    const diffs = compareBraking(cur.points, ref.points, { referenceLabel: "your best lap" });
+    // Compared where they are on the track: this lap's points projected onto the best lap's path.
+    const pathOf = (l: { from: number; d: Float64Array }) => ({ distanceM: l.d, lat: lat?.subarray(l.from, l.from + l.d.length), lon: lon?.subarray(l.from, l.from + l.d.length) });
+    const aligned = cur === ref ? ref.points : alignToReference(cur.points, pathOf(cur), pathOf(ref));
+    const diffs = compareBraking(aligned, ref.points, { referenceLabel: "your best lap" });
     const corners: BriefCorner[] = diffs.map((dff) => {
       const c: BrakingPoint | undefined = cur.points.find((x) => x.name === dff.name);
       const r = refByName.get(dff.name);

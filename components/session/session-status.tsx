@@ -8,6 +8,7 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useSessionStatus, type SessionStatus as Status } from "@/lib/client/use-session-status";
 import { ReimportButton } from "./reimport-button";
+import { KeepFirstChoice } from "@/components/upload/keep-first-choice";
 
 const WORDS: Record<string, string> = {
   uploaded: "Uploaded — looking at the file",
@@ -18,7 +19,7 @@ const WORDS: Record<string, string> = {
   failed: "Import failed",
 };
 
-export function SessionStatus({ initial, canEdit }: { initial: Status; canEdit: boolean }) {
+export function SessionStatus({ initial, canEdit, repeatedTimeRows = null }: { initial: Status; canEdit: boolean; repeatedTimeRows?: number | null }) {
   const router = useRouter();
   const { data, error } = useSessionStatus(initial.id, initial);
   const s = data ?? initial;
@@ -38,7 +39,8 @@ export function SessionStatus({ initial, canEdit }: { initial: Status; canEdit: 
         <p className="mt-1 text-sm whitespace-pre-line text-ink-100" data-testid="failure-reason">{s.statusReason ?? "No reason was recorded."}</p>
         <p className="mt-2 text-xs text-ink-400">No data from this file is shown. The uploaded file is kept: fix the mapping, or upload a corrected export.</p>
         {canEdit && (
-          <div className="mt-3">
+          <div className="mt-3 space-y-3">
+            {repeatedTimeRows != null && <KeepFirstChoice sessionId={s.id} repeatedRows={repeatedTimeRows} />}
             <ReimportButton sessionId={s.id} />
           </div>
         )}

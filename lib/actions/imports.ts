@@ -9,7 +9,7 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { HttpError } from "@/lib/http/http-error";
-import { confirmImport, reimport, saveSessionDetails } from "@/lib/data/session-details";
+import { confirmImport, importKeepingFirstOfRepeatedTimes, reimport, saveSessionDetails } from "@/lib/data/session-details";
 import { resolveTeamDuplicate } from "@/lib/data/imports";
 import { importFormSchema, sessionDetailsSchema, issuesToErrors, type FormState, type ImportFormInput, type SessionDetailsInput } from "@/lib/forms/session-form";
 
@@ -91,4 +91,18 @@ export async function resolveDuplicateAction(_prev: FormState, form: FormData): 
   // Navigate from the action: with "existing" this page's session no longer exists, so re-rendering
   // it in the action's answer would end in a 404 instead of the earlier session.
   redirect(target.status === "mapping" ? `/sessions/${target.sessionId}/import` : `/sessions/${target.sessionId}`);
+}
+
+/** A CSV refused for repeated time stamps: import it again keeping the first row of each stamp. */
+export async function keepFirstOfRepeatedTimesAction(_prev: FormState, form: FormData): Promise<FormState> {
+  const g = await actionTeam(UPLOAD);
+  if (!g.ctx) return { ok: false, message: g.error };
+  const sessionId = Number(form.get("sessionId"));
+  try {
+    await importKeepingFirstOfRepeatedTimes(g.ctx, sessionId);
+  } catch (e) {
+    return failure(e);
+  }
+  revalidateSession(sessionId);
+  redirect(`/sessions/${sessionId}`);
 }

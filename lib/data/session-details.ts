@@ -10,6 +10,7 @@ import { initModels, RideSession, Rider, Bike, Engine, RaceEvent, LogFile, Impor
 import { roleCan, type TeamContext } from "@/lib/auth/guard";
 import { HttpError, forbidden } from "@/lib/http/http-error";
 import { confirmMapping, prepareImport, validateMapping, mappingSchema, type ImportPreview } from "./imports";
+import { enqueueJob } from "./jobs";
 import type { Mapping, MappedColumn } from "@/lib/ingest/mapping";
 import type { SuggestedColumn } from "@/lib/ingest/suggest-mapping";
 import type { SessionDetailsValues, ImportFormValues } from "@/lib/forms/session-form";
@@ -134,6 +135,24 @@ export async function reimportSession(sequelize: Sequelize, ctx: Caller, session
   if (session.status === "queued" || session.status === "parsing") throw new HttpError(409, "This session is being read now; wait until it is ready or failed.");
   const after = await prepareImport(sequelize, sessionId, { forceMapping: true });
   return { status: after.status };
+}
+
+/**
+ * A CSV refused because rows repeat their time stamps (a rounded 1 kHz export): read it again
+ * keeping the first row of each time stamp. Only this session's mapping changes, not the team's
+ * Import profile, so the next upload is refused again until someone chooses this for it too.
+ */
+export async function keepFirstOfRepeatedTimes(sequelize: Sequelize, ctx: Caller, sessionId: number): Promise<void> {
+  initModels(sequelize);
+  assertCanEdit(ctx);
+  const session = await findTeamSession(ctx, sessionId);
+  const failure = (session.summary as { failure?: { code?: string } } | null)?.failure;
+  if (session.status !== "failed" || failure?.code !== "DUPLICATE_TIME" || !session.mapping) {
+    throw new HttpError(409, "This session was not refused for repeated time stamps; nothing to import again this way.");
+  }
+  const mapping: Mapping = { ...(session.mapping as Mapping), duplicateTimes: "keepFirst" };
+  await session.update({ mapping, status: "queued", statusReason: null, progress: 0 });
+  await enqueueJob(sequelize, sessionId);
 }
 
 /** A session's editable details as the forms show them (dates as ISO strings). */
@@ -265,4 +284,9 @@ export function confirmImport(ctx: Caller, sessionId: number, v: ImportFormValue
 /** Reads a session's kept file again as the caller (team and role checked inside). */
 export function reimport(ctx: Caller, sessionId: number): Promise<{ status: string }> {
   return reimportSession(getSequelize(), ctx, sessionId);
+}
+
+/** Imports a refused CSV again keeping the first row of each repeated time stamp, as the caller. */
+export function importKeepingFirstOfRepeatedTimes(ctx: Caller, sessionId: number): Promise<void> {
+  return keepFirstOfRepeatedTimes(getSequelize(), ctx, sessionId);
 }

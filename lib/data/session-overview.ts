@@ -37,6 +37,8 @@ export interface SessionOverview {
   format: ImportPreview["format"] | null;
   /** What the reader skipped or corrected in the file (e.g. "412 sentences skipped: …"). */
   importNotes: string[];
+  /** A CSV refused because rows repeat their time stamps: how many rows repeat (it can be imported keeping the first of each). */
+  repeatedTimeRows: number | null;
   channels: ChannelRow[];
 }
 
@@ -70,6 +72,7 @@ export async function getSessionOverview(ctx: TeamContext, sessionId: number): P
       ...(((row?.summary as { importNotes?: unknown } | null)?.importNotes as string[] | undefined) ?? []),
       ...(((row?.summary as { analysisNotes?: unknown } | null)?.analysisNotes as string[] | undefined) ?? []),
     ].filter((x) => typeof x === "string"),
+    repeatedTimeRows: repeatedTimeRows(s.status, row?.summary),
     channels: channels.map((c) => {
       const d = displayUnitFor(c.role, c.unit);
       return {
@@ -84,4 +87,9 @@ export async function getSessionOverview(ctx: TeamContext, sessionId: number): P
       };
     }),
   };
+}
+
+function repeatedTimeRows(status: string, summary: unknown): number | null {
+  const f = (summary as { failure?: { code?: unknown; duplicateRows?: unknown } } | null)?.failure;
+  return status === "failed" && f?.code === "DUPLICATE_TIME" && typeof f.duplicateRows === "number" ? f.duplicateRows : null;
 }

@@ -206,7 +206,10 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
   } catch (e) {
     await setProgress.settle();
     if (e instanceof IngestError) {
-      await RideSession.update({ status: "failed", statusReason: e.message, progress: 0 }, { where: { id: sessionId } });
+      // The refusal's code (and, for repeated time stamps, the count) lets the session page offer the way out.
+      const row = await RideSession.findByPk(sessionId, { attributes: ["summary"] });
+      const failure = { code: e.code, ...(e.duplicateRows ? { duplicateRows: e.duplicateRows } : {}) };
+      await RideSession.update({ status: "failed", statusReason: e.message, progress: 0, summary: { ...((row?.summary as object | null) ?? {}), failure } }, { where: { id: sessionId } });
       return "failed";
     }
     throw e;

@@ -61,7 +61,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
       {duplicate ? (
         <DuplicateChoice sessionId={s.id} earlier={duplicate} canEdit={canEdit} />
       ) : (
-        <SessionStatus initial={{ id: s.id, status: s.status, progress: s.progress, statusReason: s.statusReason }} canEdit={canEdit} />
+        <SessionStatus initial={{ id: s.id, status: s.status, progress: s.progress, statusReason: s.statusReason }} canEdit={canEdit} repeatedTimeRows={o.repeatedTimeRows} />
       )}
 
       {ready && (

@@ -6,6 +6,7 @@ import { IngestError, quoteForMessage } from "./ingest-error";
 import { formatBytes, GPX_MAX_BYTES, LIMITS, type IngestLimits } from "./limits";
 import type { ParsedSeries } from "./parsed-series";
 import { sniffFormat } from "./sniff-format";
+import { allFixesPoorMessage, poorFixNote, poorFixReason, type PoorFixCounts } from "./fix-quality";
 
 export interface ParseGpxOptions {
   fileName?: string;
@@ -20,6 +21,9 @@ interface TrackPoint {
   ms: number;
   timeText: string;
   line: number;
+  /** <sat> and <hdop> (GPX 1.1 wptType), NaN when absent. */
+  sats: number;
+  hdop: number;
 }
 
 /** Line number (1-based) of a character index, by binary search over line starts. */
@@ -129,7 +133,7 @@ export function parseGpx(input: string | Buffer, options: ParseGpxOptions = {}):
         const ext = pt.extensions as Record<string, unknown> | undefined;
         const speed = numberOrNaN(pt.speed ?? (ext && typeof ext === "object" ? ext.speed : undefined));
         if (Number.isNaN(speed)) everyPointHasSpeed = false;
-        points.push({ lat, lon, ele: numberOrNaN(pt.ele), speed, ms, timeText, line });
+        points.push({ lat, lon, ele: numberOrNaN(pt.ele), speed, ms, timeText, line, sats: numberOrNaN(pt.sat), hdop: numberOrNaN(pt.hdop) });
       }
     }
   }
@@ -142,6 +146,19 @@ export function parseGpx(input: string | Buffer, options: ParseGpxOptions = {}):
   if (points.length > limits.maxRows) {
     throw new IngestError("TOO_MANY_ROWS", `"${fileName}" has ${points.length.toLocaleString("en-GB")} track points; at most ${limits.maxRows.toLocaleString("en-GB")} are accepted.`);
   }
+  // Poor fixes (too few satellites, too high an HDOP) are dropped and counted.
+  const poor: PoorFixCounts = { satellites: 0, hdop: 0 };
+  {
+    let w = 0;
+    for (const p of points) {
+      const why = poorFixReason(p.sats, p.hdop);
+      if (why) poor[why]++;
+      else points[w++] = p;
+    }
+    points.length = w;
+  }
+  if (points.length === 0) throw new IngestError("GPX_NO_POINTS", allFixesPoorMessage(fileName, poor));
+  if (everyPointHasSpeed === false && points.every((p) => !Number.isNaN(p.speed))) everyPointHasSpeed = true;
   for (let i = 1; i < points.length; i++) {
     const a = points[i - 1];
     const b = points[i];
@@ -169,7 +186,9 @@ export function parseGpx(input: string | Buffer, options: ParseGpxOptions = {}):
   };
   const creator = (gpx as Record<string, unknown>)["@_creator"];
   if (typeof creator === "string") metadata.creator = creator.slice(0, 200);
-  return { timeS, channels, metadata, rows: n };
+  const note = poorFixNote(poor);
+  if (note) metadata.gpx_poor_fixes_dropped = String(poor.satellites + poor.hdop);
+  return { timeS, channels, metadata, rows: n, ...(note ? { notes: [note] } : {}) };
 }
 
 /** Speed at each point: geodesic distance over time, central difference (one-sided at the ends). */

@@ -5,6 +5,7 @@ import { IngestError } from "./ingest-error";
 import { LIMITS, type IngestLimits } from "./limits";
 import type { IngestProgress, ParsedSeries } from "./parsed-series";
 import { KNOT_TO_MPS } from "./units";
+import { allFixesPoorMessage, poorFixNote, poorFixReason, type PoorFixCounts } from "./fix-quality";
 
 export interface ParseNmeaOptions {
   fileName?: string;
@@ -38,6 +39,8 @@ interface Epoch {
   /** Satellites in use and horizontal dilution of precision (GGA), when given. */
   sats?: number;
   hdop?: number;
+  /** The epoch's GGA says it is no satellite fix (quality 0, 6 dead reckoning, 7 manual, 8 simulation). */
+  ggaNoFix?: boolean;
 }
 
 /**
@@ -200,6 +203,10 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
       const quality = Number(fields[6]);
       if (!(quality >= 1 && quality <= 5) || fields[2] === "" || fields[4] === "") {
         noFix++;
+        // Marks the epoch: an RMC of the same time saying "valid" (a dead-reckoned position) is not
+        // a satellite fix either. A GGA-only epoch without position is dropped after reading.
+        const tod = todFromField(fields[1] ?? "");
+        if (Number.isFinite(tod)) epochFor(tod, lineNo, fields[1]).ggaNoFix = true;
         return;
       }
       if (!plausiblePosition(gga.latitude, gga.longitude)) {
@@ -252,6 +259,26 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
       { line: firstBadLine },
     );
   }
+  // Poor fixes: too few satellites, too high an HDOP, or a GGA saying the epoch is no satellite fix.
+  const poor: PoorFixCounts = { satellites: 0, hdop: 0, notSatelliteFix: 0 };
+  {
+    let w = 0;
+    for (const e of epochs) {
+      if (Number.isNaN(e.lat)) continue; // a GGA without a fix and no RMC position: no fix at all
+      if (e.ggaNoFix) {
+        poor.notSatelliteFix!++;
+        continue;
+      }
+      const why = poorFixReason(e.sats, e.hdop);
+      if (why) {
+        poor[why]++;
+        continue;
+      }
+      epochs[w++] = e;
+    }
+    epochs.length = w;
+  }
+  if (epochs.length === 0 && (poor.satellites || poor.hdop || poor.notSatelliteFix)) throw new IngestError("NMEA_NO_FIX", allFixesPoorMessage(fileName, poor));
   if (epochs.length === 0) {
     const why = fixSentences === 0 ? `it has no RMC or GGA sentences (${good} other sentences)` : `none of its ${fixSentences} RMC/GGA sentences has a valid fix (RMC status A or GGA fix quality 1–5)`;
     throw new IngestError("NMEA_NO_FIX", `"${fileName}" has no GPS fix: ${why}.`);
@@ -366,6 +393,11 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
   }
   if (progress.nulBytes) notes.push(`${progress.nulBytes} zero bytes dropped (the receiver restarted).`);
   if (badPosition) notes.push(`${badPosition} fixes at (0, 0) or out of range dropped.`);
+  const poorNote = poorFixNote(poor);
+  if (poorNote) {
+    notes.push(poorNote);
+    metadata.nmea_poor_fixes_dropped = String(poor.satellites + poor.hdop + poor.notSatelliteFix!);
+  }
   if (wrongDate) notes.push(`${wrongDate} fixes dated more than a day from the rest (a cold start or a receiver's wrong clock) dropped.`);
   if (rolloverWeeks) notes.push(`The receiver's dates were ${rolloverWeeks} weeks early (GPS week-number rollover); corrected.`);
   if (repeated) notes.push(`${repeated} fixes repeating the time of the one before dropped.`);

@@ -104,5 +104,6 @@ export async function keepFirstOfRepeatedTimesAction(_prev: FormState, form: For
     return failure(e);
   }
   revalidateSession(sessionId);
-  redirect(`/sessions/${sessionId}`);
+  // The session page's status card refetches and follows the new read (no navigation: it is the same page).
+  return { ok: true, message: "Queued to be read again." };
 }

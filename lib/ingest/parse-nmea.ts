@@ -118,6 +118,14 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
     return current;
   };
 
+  /** The first few address fields ("$GPRMC") of sentences that could not be read, for the refusal. */
+  const badTypes = new Map<string, number>();
+  const tallyType = (line: string) => {
+    const m = /^\$([A-Z0-9]{2,8}),/.exec(line);
+    if (!m) return;
+    if (badTypes.has(m[1]) || badTypes.size < 50) badTypes.set(m[1], (badTypes.get(m[1]) ?? 0) + 1);
+  };
+
   /** One sentence ("$…*hh"); `inNote`: found inside a `#` note line, kept only when intact. */
   const handleSentence = (line: string, inNote: boolean) => {
     const star = line.lastIndexOf("*");
@@ -131,6 +139,8 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
       sentences++;
       if (!hasChecksum) truncated++;
       else unreadable++;
+      if (!firstBadLine) firstBadLine = lineNo;
+      tallyType(line);
       return;
     }
     if (!packet.chxOk) {
@@ -139,6 +149,7 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
       if (hasChecksum) badChecksum++;
       else truncated++;
       if (!firstBadLine) firstBadLine = lineNo;
+      tallyType(line);
       return;
     }
     sentences++;
@@ -252,10 +263,22 @@ export async function parseNmea(input: string | Buffer | NodeJS.ReadableStream |
   if (sentences === 0) {
     throw new IngestError("NMEA_NO_SENTENCES", `"${fileName}" has no NMEA 0183 sentences (lines starting with '$'); ${nonNmeaLines} other lines.`);
   }
-  if (good === 0 && badChecksum > 0) {
+  if (good === 0 && badChecksum > 0 && truncated === 0 && unreadable === 0) {
     throw new IngestError(
       "NMEA_ALL_BAD_CHECKSUMS",
       `All ${badChecksum} NMEA sentences have a missing or wrong checksum (the *hh at the end), first at line ${firstBadLine}; the file is damaged or not NMEA 0183.`,
+      { line: firstBadLine },
+    );
+  }
+  if (good === 0) {
+    // Nothing readable: say what the file holds instead, so the person knows it is another format.
+    const kinds = [badChecksum && `${badChecksum} with a wrong checksum`, truncated && `${truncated} without a checksum`, unreadable && `${unreadable} unreadable`].filter(Boolean).join(", ");
+    const common = [...badTypes.entries()].sort((a, b) => b[1] - a[1]).slice(0, 4).map(([t]) => `$${t}`);
+    const noRmcGga = ![...badTypes.keys()].some((t) => /^(?:..)(?:RMC|GGA)$/.test(t));
+    throw new IngestError(
+      "NMEA_ALL_BAD_CHECKSUMS",
+      `None of the ${sentences} sentences in "${fileName}" is a readable NMEA 0183 sentence (${kinds}), first at line ${firstBadLine}.` +
+        (common.length ? ` Most are ${common.join(", ")}${noRmcGga ? ", and none is an RMC or GGA position sentence" : ""}: this looks like another logging format, not NMEA 0183 as a GPS receiver writes it.` : ""),
       { line: firstBadLine },
     );
   }

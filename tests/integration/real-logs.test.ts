@@ -86,8 +86,11 @@ function recordings(dir: string): string[] {
 
 /** Files whose failure is the honest outcome, with the reason a person reads. */
 const EXPECTED_FAILURES: Record<string, RegExp> = {
-  // GENIVI's own log format (sentences without checksums), not NMEA 0183 as a receiver writes it.
-  "car-city-short.nmea": /no GPS fix|checksum|no NMEA/,
+  // GENIVI's own log format ($GV… sentences without checksums), not NMEA 0183 as a receiver writes it.
+  "car-city-short.nmea": /^None of the 905 sentences in "car-city-short\.nmea" is a readable NMEA 0183 sentence \(905 without a checksum\), first at line 3\. Most are \$GVGNSP, .*none is an RMC or GGA position sentence: this looks like another logging format/,
+  // Every fix of these captures uses 3 satellites (GGA field 7): too few for a full fix (four unknowns).
+  "mtk-3301.log": /no GPS fix good enough to use: all 4 fixes are poor \(4 with fewer than 4 satellites\)/,
+  "rgm3800.log": /no GPS fix good enough to use: all 2 fixes are poor \(2 with fewer than 4 satellites\)/,
   // Void-only captures (README): the receiver never had a fix.
   "GPSmap-76S.log": /no GPS fix/,
   "ublox-lea-5q.log": /no GPS fix/,
@@ -123,7 +126,17 @@ describe("real recorded logs through the upload path", () => {
     expect(km).toBeGreaterThan(242 * 0.98);
     expect(km).toBeLessThan(242 * 1.02);
     expect((o.summary.importNotes as string[]).join(" ")).toMatch(/zero bytes dropped/);
+    // Its GGA sentences (counted with awk over the file): 3 fixes with fewer than 4 satellites, 1 with HDOP
+    // above 5, and epochs the receiver dead-reckoned (GGA quality 6, 0 satellites) while RMC said valid.
+    expect((o.summary.importNotes as string[]).join(" ")).toMatch(/\d+ poor GPS fixes dropped: 3 with fewer than 4 satellites, 1 with HDOP above 5, \d+ marked by GGA as dead reckoning/);
   }, 300_000);
+
+  it("a capture with high-HDOP fixes: they are dropped and counted", async () => {
+    // geos-1m.log: of its 7 GGA fixes, 4 have HDOP 8.3 (the file's field 8).
+    const o = await importFile("geos-1m-again.log", read("gpsd-captures", "geos-1m.log"));
+    expect(o.status, String(o.reason)).toBe("ready");
+    expect((o.summary.importNotes as string[]).join(" ")).toMatch(/4 with HDOP above 5/);
+  });
 
   it("NMEA with spliced, truncated and bad-checksum sentences: skipped and counted on the session", async () => {
     // gpsd capture notes (README): spliced sentences in isync/triton400, truncated ones with bad checksums in the cold-boot capture.

@@ -172,3 +172,21 @@ describe("thresholds", () => {
     expect(FINDING_KINDS).toHaveLength(9);
   });
 });
+
+describe("honest defaults: nothing assumed that the bike or the track does not say", () => {
+  const { series, laps } = makeSession(true);
+  it("a bike with no rev ceiling set gets no rev-ceiling finding, even at 14 300 rpm (no default ceiling is assumed)", () => {
+    const { revCeilingRpm: _none, ...bike } = ctxFor(laps).bike;
+    void _none;
+    expect(runFindings(series, { ...ctxFor(laps), bike }).some((x) => x.kind === "rev_ceiling")).toBe(false);
+    // The same session with the ceiling set finds it: the check itself works.
+    expect(runFindings(series, ctxFor(laps)).some((x) => x.kind === "rev_ceiling")).toBe(true);
+  });
+  it("brake on a straight needs the bike upright and fast: the same pressure at 40° lean, or below the speed floor, is not found", () => {
+    const leaning: SessionSeries = { ...series, channels: { ...series.channels, lean_angle: Float32Array.from(series.channels.lean_angle!, (x, i) => (series.timeS[i] >= 50 && series.timeS[i] < 50.5 ? 40 : x)) } };
+    expect(runFindings(series, ctxFor(laps)).some((x) => x.kind === "brake_on_straight")).toBe(true);
+    expect(runFindings(leaning, ctxFor(laps)).some((x) => x.kind === "brake_on_straight")).toBe(false);
+    // At t = 50 s the planted speed is 45 + 20·sin(15) ≈ 58 m/s; a 70 m/s floor puts it below.
+    expect(runFindings(series, { ...ctxFor(laps), thresholds: { brakeOnStraightMinSpeedMs: 70 } }).some((x) => x.kind === "brake_on_straight")).toBe(false);
+  });
+});

@@ -62,7 +62,13 @@ describe("rows repeating their time stamps", () => {
 
   it("one click imports it keeping the first row of each stamp; the session page says how many were dropped", async () => {
     await page.getByTestId("keep-first-choice").getByRole("button", { name: "Keep the first row of each time stamp" }).click();
-    await page.locator('[data-testid="session-status"][data-status="ready"]').waitFor({ timeout: 120_000 });
+    try {
+      await page.locator('[data-testid="session-status"][data-status="ready"]').waitFor({ timeout: 60_000 });
+    } catch (e) {
+      await shot(page, "repeated-times-not-ready");
+      console.log("[debug]", (await page.locator("main").textContent())?.slice(0, 1500));
+      throw e;
+    }
     const notes = page.getByTestId("import-notes");
     await notes.waitFor({ timeout: 30_000 });
     expect(await notes.textContent()).toMatch(/1,800 rows repeating the time stamp of the row before were dropped \(the first row of each time stamp kept\)\./);

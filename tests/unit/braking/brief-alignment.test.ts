@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { buildAnalysisBase } from "@/lib/analysis/analysis-base";
 import { computeBrief } from "@/lib/analysis/page-analyses";
 import { toLocalMetres } from "@/lib/geo/to-local-metres";
+import { alignToReference } from "@/lib/braking/align-to-reference";
 import type { SessionSeries } from "@/lib/channels/roles";
 import type { Lap } from "@/lib/laps/types";
 
@@ -100,5 +101,19 @@ describe("rider brief: braking points compared where they are on the track", () 
     expect(c.earlierM!).toBeGreaterThan(-17);
     expect(c.earlierM!).toBeLessThan(-13);
     expect(c.text).toMatch(/1[3-7] m later/);
+  });
+});
+
+describe("alignToReference without GPS", () => {
+  it("scales by the ratio of the two laps' lengths: 2 678 m on a 3 009.4 m lap is 2 670 m on a 3 000 m one", () => {
+    // Proportion: 2678 · 3000 / 3009.4 = 2669.66 m (a lap 0.313 % longer, the same place).
+    const lap = { distanceM: [0, 1000, 2000, 3009.4] };
+    const ref = { distanceM: [0, 1000, 2000, 3000] };
+    const point = { name: "Turn 1", braked: true, onsetDistanceM: 2678, releaseDistanceM: 2800, peakPressurePa: 1e6, minSpeedMs: 20, apexDistanceM: 2830, onsetToApexM: 152 };
+    const [a] = alignToReference([point], lap, ref);
+    expect(a.onsetDistanceM!).toBeCloseTo((2678 * 3000) / 3009.4, 6);
+    expect(a.apexDistanceM).toBeCloseTo((2830 * 3000) / 3009.4, 6);
+    // The lap's own braking distance is measured along its own path and stays as it was.
+    expect(a.onsetToApexM).toBe(152);
   });
 });

@@ -32,6 +32,7 @@ import {
 import { storedJsonParse } from "@/lib/analysis/stored-json";
 import { loadSessionSeries } from "./session-series";
 import { jsonColumn } from "./json-column";
+import { storedLapState } from "@/lib/laps/stored-lap-state";
 
 export type { AnalysisBase, BikeInfo, LapInfo } from "@/lib/analysis/analysis-base";
 export { lapRange } from "@/lib/analysis/analysis-base";
@@ -45,19 +46,22 @@ function toLibGates(g: StoredGates | null): TrackGates | null {
 
 /** The session's rows as the page analyses read them. Ingest maps its own rows through this too, so both hash to the same basis. */
 export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title">, lapRows: LapModel[], bikeRow: Bike | null, trackRow: Track | null): AnalysisInputs {
-  const laps: Lap[] = lapRows.map((l) => ({
-    number: l.number,
-    startTimeS: l.startTimeS,
-    endTimeS: l.endTimeS,
-    lapTimeMs: l.lapTimeMs,
-    sectorTimesMs: jsonColumn<(number | null)[]>(l.sectorTimesMs) ?? [],
-    outLap: Boolean(l.isOutLap),
-    inLap: Boolean(l.isInLap),
-    pitPass: Boolean(l.pitPass),
-    complete: jsonColumn<{ complete?: boolean }>(l.stats)?.complete ?? (!l.isOutLap && !l.isInLap),
-    invalid: Boolean(l.isInvalid),
-    ...(jsonColumn<{ suspect?: boolean }>(l.stats)?.suspect ? { suspect: true } : {}),
-  }));
+  const laps: Lap[] = lapRows.map((l) => {
+    const { complete, suspect } = storedLapState(jsonColumn<{ complete?: boolean; suspect?: boolean }>(l.stats), Boolean(l.isOutLap), Boolean(l.isInLap));
+    return {
+      number: l.number,
+      startTimeS: l.startTimeS,
+      endTimeS: l.endTimeS,
+      lapTimeMs: l.lapTimeMs,
+      sectorTimesMs: jsonColumn<(number | null)[]>(l.sectorTimesMs) ?? [],
+      outLap: Boolean(l.isOutLap),
+      inLap: Boolean(l.isInLap),
+      pitPass: Boolean(l.pitPass),
+      complete,
+      invalid: Boolean(l.isInvalid),
+      ...(suspect ? { suspect: true } : {}),
+    };
+  });
   const bike: BikeInfo | null = bikeRow
     ? {
         id: bikeRow.id,

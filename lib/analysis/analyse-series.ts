@@ -192,6 +192,13 @@ function hasFinite(x: ArrayLike<number> | undefined): boolean {
 }
 
 /**
+ * The roles analyseSeries itself reads (the findings declare theirs in lib/findings): GPS for laps,
+ * pit lane and distance; the lap beacon for laps without gates; wheel and GPS speed for lap
+ * stats, distance and top speed; engine speed for lap maxima and engine use.
+ */
+export const ANALYSE_SERIES_READS = ["gps_lat", "gps_lon", "gps_speed", "speed_front", "speed_rear", "lap_beacon", "engine_rpm"] as const;
+
+/**
  * Everything Lapbench derives from a session's samples at ingest: laps (GPS gates, else the lap
  * beacon) with distance, top speed and sectors; findings with the lap, distance along the lap and
  * position of each; and the session summary (best lap, best-sector lap, engine usage).

@@ -50,6 +50,9 @@ function makeLapOf(laps: readonly LapSpan[] | undefined) {
   };
 }
 
+/** The roles buildDetectorContext reads for every detector: the wheel speeds and GPS speed behind the ground speed. */
+export const DETECTOR_CONTEXT_READS = ["speed_front", "speed_rear", "gps_speed"] as const;
+
 /** Thresholds resolved once (resolveThreshold: team settings over DEFAULT_THRESHOLDS), then the shared series facts. */
 export function buildDetectorContext(series: SeriesLike, ctx: FindingsContext): DetectorContext {
   const th = {} as Thresholds;

@@ -4,7 +4,7 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { createBike, updateBike } from "@/lib/data/bikes";
 import { createEngine, updateEngine } from "@/lib/data/engines";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
 
 const BIKE_FIELDS = ["name", "className", "wheelCircFrontMm", "wheelCircRearMm", "primaryRatio", "gearboxRatios", "sprocketFront", "sprocketRear", "revCeilingRpm", "forkStrokeMm", "shockStrokeMm", "tyreCrownRadiusMm", "tyreCrownRadiusFrontMm"] as const;

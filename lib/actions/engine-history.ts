@@ -2,7 +2,7 @@
 /** Moving an engine between bikes and recording a rebuild, each with a dated record (engineers and the owner). */
 import { revalidatePath } from "next/cache";
 import { moveEngine, recordRebuild } from "@/lib/data/engine-season";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { recordActivity } from "@/lib/data/activity-log";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
 

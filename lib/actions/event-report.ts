@@ -2,7 +2,7 @@
 /** Mail an event's report to the team owner (engineers and the owner send it). */
 import { actionTeam } from "@/lib/auth/page-guard";
 import { sendEventReport } from "@/lib/data/event-report";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { HttpError } from "@/lib/http/http-error";
 
 export interface SendReportState {

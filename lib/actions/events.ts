@@ -2,7 +2,7 @@
 /** Event (race meeting) server actions. */
 import { revalidatePath } from "next/cache";
 import { createEvent, updateEvent } from "@/lib/data/events";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
 
 const FIELDS = ["name", "trackId", "startsOn", "endsOn"] as const;

@@ -2,11 +2,13 @@
 /** Import profile actions (engineers and owners): rename and edit the columns, or delete. */
 import { revalidatePath } from "next/cache";
 import { deleteImportProfile, updateImportProfile } from "@/lib/data/import-profiles";
+import { parseId } from "@/lib/http/parse-id";
 import { withSetupRole, type SetupActionState } from "./setup-state";
 
 /** The card sends the whole profile as JSON in `payload`. */
 export async function saveImportProfileAction(_prev: SetupActionState, form: FormData): Promise<SetupActionState> {
-  const id = Number(form.get("profileId"));
+  const id = parseId(String(form.get("profileId") ?? ""));
+  if (id === null) return { ok: false, status: 404, message: "Import profile was not found in your team." };
   let payload: unknown;
   try {
     payload = JSON.parse(String(form.get("payload") ?? ""));
@@ -21,7 +23,8 @@ export async function saveImportProfileAction(_prev: SetupActionState, form: For
 }
 
 export async function deleteImportProfileAction(_prev: SetupActionState, form: FormData): Promise<SetupActionState> {
-  const id = Number(form.get("profileId"));
+  const id = parseId(String(form.get("profileId") ?? ""));
+  if (id === null) return { ok: false, status: 404, message: "Import profile was not found in your team." };
   return withSetupRole({}, async (ctx) => {
     await deleteImportProfile(ctx, id);
     revalidatePath("/import-profiles");

@@ -9,11 +9,16 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { HttpError } from "@/lib/http/http-error";
+import { parseId } from "@/lib/http/parse-id";
 import { confirmImport, importKeepingFirstOfRepeatedTimes, reimport, saveSessionDetails } from "@/lib/data/session-details";
 import { resolveTeamDuplicate } from "@/lib/data/imports";
-import { importFormSchema, sessionDetailsSchema, issuesToErrors, type FormState, type ImportFormInput, type SessionDetailsInput } from "@/lib/forms/session-form";
+import { fieldErrors, type FormState } from "@/lib/forms/form-state";
+import { importFormSchema, sessionDetailsSchema, type ImportFormInput, type SessionDetailsInput } from "@/lib/forms/session-form";
 
 const UPLOAD = { permission: { "session-data": ["upload"] } } as const;
+
+/** A session id the client sent that is not an id: the same answer as another team's session. */
+const NO_SESSION: FormState = { ok: false, message: "Session was not found in your team." };
 
 function failure(e: unknown): FormState {
   if (e instanceof HttpError) {
@@ -34,9 +39,11 @@ export async function confirmImportAction(sessionId: number, input: ImportFormIn
   const g = await actionTeam(UPLOAD);
   if (!g.ctx) return { ok: false, message: g.error };
   const parsed = importFormSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: issuesToErrors(parsed.error.issues) };
+  if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: fieldErrors(parsed.error) };
   try {
-    await confirmImport(g.ctx, Number(sessionId), parsed.data);
+    const id = parseId(sessionId);
+    if (id === null) return NO_SESSION;
+    await confirmImport(g.ctx, id, parsed.data);
   } catch (e) {
     return failure(e);
   }
@@ -49,9 +56,11 @@ export async function saveSessionDetailsAction(sessionId: number, input: Session
   const g = await actionTeam(UPLOAD);
   if (!g.ctx) return { ok: false, message: g.error };
   const parsed = sessionDetailsSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: issuesToErrors(parsed.error.issues) };
+  if (!parsed.success) return { ok: false, message: "Some fields need another look.", errors: fieldErrors(parsed.error) };
   try {
-    await saveSessionDetails(g.ctx, Number(sessionId), parsed.data);
+    const id = parseId(sessionId);
+    if (id === null) return NO_SESSION;
+    await saveSessionDetails(g.ctx, id, parsed.data);
   } catch (e) {
     return failure(e);
   }
@@ -63,7 +72,8 @@ export async function saveSessionDetailsAction(sessionId: number, input: Session
 export async function reimportAction(_prev: FormState, form: FormData): Promise<FormState> {
   const g = await actionTeam(UPLOAD);
   if (!g.ctx) return { ok: false, message: g.error };
-  const sessionId = Number(form.get("sessionId"));
+  const sessionId = parseId(String(form.get("sessionId") ?? ""));
+  if (sessionId === null) return NO_SESSION;
   let status: string;
   try {
     ({ status } = await reimport(g.ctx, sessionId));
@@ -79,7 +89,8 @@ export async function reimportAction(_prev: FormState, form: FormData): Promise<
 export async function resolveDuplicateAction(_prev: FormState, form: FormData): Promise<FormState> {
   const g = await actionTeam(UPLOAD);
   if (!g.ctx) return { ok: false, message: g.error };
-  const sessionId = Number(form.get("sessionId"));
+  const sessionId = parseId(String(form.get("sessionId") ?? ""));
+  if (sessionId === null) return NO_SESSION;
   const choice = form.get("choice") === "import" ? "import" : "existing";
   let target: { sessionId: number; status: string };
   try {
@@ -97,7 +108,8 @@ export async function resolveDuplicateAction(_prev: FormState, form: FormData): 
 export async function keepFirstOfRepeatedTimesAction(_prev: FormState, form: FormData): Promise<FormState> {
   const g = await actionTeam(UPLOAD);
   if (!g.ctx) return { ok: false, message: g.error };
-  const sessionId = Number(form.get("sessionId"));
+  const sessionId = parseId(String(form.get("sessionId") ?? ""));
+  if (sessionId === null) return NO_SESSION;
   try {
     await importKeepingFirstOfRepeatedTimes(g.ctx, sessionId);
   } catch (e) {

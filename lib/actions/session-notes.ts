@@ -12,7 +12,7 @@ import type { GuardOptions, TeamContext } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
 import { createSessionNote, deleteSessionNote } from "@/lib/data/session-notes";
 import { fieldErrors } from "@/lib/data/form-fields";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { formValues, type SetupActionState } from "./setup-state";
 import { recordActivity } from "@/lib/data/activity-log";
 

@@ -2,7 +2,7 @@
 /** Session page: choose the session's track, or make one from its GPS with the suggested start/finish gate. */
 import { revalidatePath } from "next/cache";
 import { changeSessionTrack, createTrackWithSuggestedGate } from "@/lib/data/session-track";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
 
 function revalidate(sessionId: number) {

@@ -6,7 +6,7 @@
  */
 import { revalidatePath } from "next/cache";
 import { saveSetupSheet, SETUP_FIELDS } from "@/lib/data/setup-sheets";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
 import { recordActivity } from "@/lib/data/activity-log";
 

@@ -11,6 +11,7 @@ import { auth } from "@/lib/auth/auth";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { teamRoles } from "@/lib/auth/permissions";
 import { recordActivity } from "@/lib/data/activity-log";
+import { fieldErrors } from "@/lib/forms/form-state";
 
 export interface ActionState {
   ok?: boolean;
@@ -21,12 +22,6 @@ export interface ActionState {
 function fail(e: unknown, fallback: string): ActionState {
   const msg = e && typeof e === "object" && "message" in e && typeof e.message === "string" && e.message ? e.message : fallback;
   return { ok: false, message: msg };
-}
-
-function fieldErrors(err: z.ZodError): Record<string, string> {
-  const out: Record<string, string> = {};
-  for (const i of err.issues) out[String(i.path[0] ?? "form")] ??= i.message;
-  return out;
 }
 
 const roleSchema = z.enum(teamRoles as [string, ...string[]], { message: "Choose one of owner, engineer, rider or viewer" });

@@ -4,6 +4,7 @@
  * the shown unit and are converted back to SI), then the save, which reanalyses the sessions.
  */
 import { revalidatePath } from "next/cache";
+import { requiredId } from "@/lib/forms/form-state";
 import { z } from "zod";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { saveBikeThresholds, saveTrackThresholds, type ThresholdOverrides } from "@/lib/data/thresholds";
@@ -17,12 +18,12 @@ export interface ThresholdState {
   errors?: Record<string, string>;
 }
 
-const head = z.object({ scope: z.enum(["bike", "track"]), id: z.coerce.number().int().positive() });
+const head = z.object({ scope: z.enum(["bike", "track"]), id: requiredId("Choose a bike or track.") });
 
 export async function saveThresholdsAction(_prev: ThresholdState, form: FormData): Promise<ThresholdState> {
   const g = await actionTeam({ permission: { setup: ["edit"] } });
   if (!g.ctx) return { ok: false, message: g.error };
-  const h = head.safeParse({ scope: form.get("scope"), id: form.get("id") });
+  const h = head.safeParse({ scope: form.get("scope"), id: String(form.get("id") ?? "") });
   if (!h.success) return { ok: false, message: "Choose a bike or track." };
   const fields = h.data.scope === "bike" ? BIKE_THRESHOLD_FIELDS : TRACK_THRESHOLD_FIELDS;
   const values: ThresholdOverrides = {};

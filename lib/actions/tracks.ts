@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { createTrack, saveTrack } from "@/lib/data/track-editor";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { formValues, withSetupRole, type SetupActionState } from "./setup-state";
 import { recordActivity } from "@/lib/data/activity-log";
 

@@ -12,7 +12,8 @@ import { findGateCrossings } from "@/lib/laps/find-gate-crossings";
 import { isFlyingLap, type Lap, type SeriesLike, type TrackGates } from "@/lib/laps/types";
 import { runFindings } from "@/lib/findings/run-findings";
 import { collapseFindings } from "@/lib/findings/collapse-findings";
-import { DEFAULT_THRESHOLDS, NO_REV_CEILING_NOTE, type ThresholdKey } from "@/lib/findings/thresholds";
+import { NO_REV_CEILING_NOTE } from "@/lib/findings/thresholds";
+import { mergeThresholds as mergeThresholdLayers } from "@/lib/findings/resolve-thresholds";
 import type { Finding, FindingKind } from "@/lib/findings/types";
 import { engineUsage, type EngineUsage } from "@/lib/engine/engine-usage";
 
@@ -102,18 +103,7 @@ export const ENGINE_LEDGER_RPM_SHARE = 0.9;
 
 const finiteOrNull = (x: number | null | undefined): number | null => (x != null && Number.isFinite(x) ? x : null);
 
-/** Defaults ⊕ bike ⊕ track, keeping only known keys with finite values. */
-export function mergeThresholds(...layers: (Record<string, number> | null | undefined)[]): Partial<Record<ThresholdKey, number>> {
-  const out: Partial<Record<ThresholdKey, number>> = {};
-  for (const layer of layers) {
-    if (!layer) continue;
-    for (const key of Object.keys(DEFAULT_THRESHOLDS) as ThresholdKey[]) {
-      const v = layer[key];
-      if (typeof v === "number" && Number.isFinite(v)) out[key] = v;
-    }
-  }
-  return out;
-}
+export { mergeThresholds } from "@/lib/findings/resolve-thresholds";
 
 /**
  * Time ranges spent in the pit lane, from forward crossings of the pit entry and pit exit gates:
@@ -202,6 +192,13 @@ function hasFinite(x: ArrayLike<number> | undefined): boolean {
 }
 
 /**
+ * The roles analyseSeries itself reads (the findings declare theirs in lib/findings): GPS for laps,
+ * pit lane and distance; the lap beacon for laps without gates; wheel and GPS speed for lap
+ * stats, distance and top speed; engine speed for lap maxima and engine use.
+ */
+export const ANALYSE_SERIES_READS = ["gps_lat", "gps_lon", "gps_speed", "speed_front", "speed_rear", "lap_beacon", "engine_rpm"] as const;
+
+/**
  * Everything Lapbench derives from a session's samples at ingest: laps (GPS gates, else the lap
  * beacon) with distance, top speed and sectors; findings with the lap, distance along the lap and
  * position of each; and the session summary (best lap, best-sector lap, engine usage).
@@ -248,7 +245,7 @@ export function analyseSeries(
     };
   });
 
-  const thresholds = mergeThresholds(bike?.thresholds, track?.thresholds);
+  const thresholds = mergeThresholdLayers(bike?.thresholds, track?.thresholds);
   const pitTimes = pitLaneTimes(series, gates);
   const events = runFindings(series, {
     laps,

@@ -19,17 +19,14 @@ import { gearFromRatios } from "@/lib/gear/gear-from-ratios";
 import { timeInGear, type TimeInGear } from "@/lib/gear/time-in-gear";
 import { shiftEvents } from "@/lib/gear/shift-events";
 import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
+import { resolveThreshold } from "@/lib/findings/resolve-thresholds";
 import { bucketByDistance } from "./bucket-by-distance";
 import { outlineFromFixes, projectOnOutline, type Outline } from "@/lib/geo/outline-path";
 import { groundSpeed, lapDistance, lapRange, type AnalysisBase, type LapInfo } from "./analysis-base";
 
-/** A threshold as the findings engine resolves it (mergeThresholds: track over bike over default). */
+/** A threshold as the findings engine resolves it (resolveThreshold: track over bike over default). */
 function thresholdOf(base: AnalysisBase, key: keyof typeof DEFAULT_THRESHOLDS): { value: number; source: "bike" | "track" | "default" } {
-  const t = base.trackThresholds[key];
-  if (typeof t === "number") return { value: t, source: "track" };
-  const b = base.bike?.thresholds[key];
-  if (typeof b === "number") return { value: b, source: "bike" };
-  return { value: DEFAULT_THRESHOLDS[key].value, source: "default" };
+  return resolveThreshold(key, base.bike?.thresholds, base.trackThresholds);
 }
 
 function lapAt(base: AnalysisBase, timeS: number): number {

@@ -8,9 +8,9 @@
  * first (getSessionForViewer); these functions take a session id that is already allowed.
  */
 import { QueryTypes, type Sequelize, type Transaction } from "sequelize";
-import { initModels, Bike, Lap as LapModel, RideSession, Track, type TrackGates as StoredGates, type TrackCorner } from "@/models";
+import { initModels, Bike, Lap as LapModel, RideSession, Track, type TrackCorner } from "@/models";
 import type { ChannelRole } from "@/lib/channels/roles";
-import type { Lap, TrackGates } from "@/lib/laps/types";
+import type { Lap } from "@/lib/laps/types";
 import { recomputeCached, roundBoundaryMs } from "./recompute-cache";
 import { analysisBasis, buildAnalysisBase, PAGE_ROLES, pageRoles, type AnalysisBase, type AnalysisInputs, type BikeInfo } from "@/lib/analysis/analysis-base";
 import {
@@ -32,32 +32,32 @@ import {
 import { storedJsonParse } from "@/lib/analysis/stored-json";
 import { loadSessionSeries } from "./session-series";
 import { jsonColumn } from "./json-column";
+import { storedLapState } from "@/lib/laps/stored-lap-state";
+import { trackGatesForAnalysis } from "@/lib/laps/track-gates-for-analysis";
 
 export type { AnalysisBase, BikeInfo, LapInfo } from "@/lib/analysis/analysis-base";
 export { lapRange } from "@/lib/analysis/analysis-base";
 export type { SpinRow, SlipAnalysis, SuspensionSide, SuspensionAnalysis, GearAnalysis, BriefCorner, RiderBrief, CornerExitSlip } from "@/lib/analysis/page-analyses";
 export { SG_WINDOWS, BRIEF_BRAKE_THRESHOLD_PA } from "@/lib/analysis/page-analyses";
 
-function toLibGates(g: StoredGates | null): TrackGates | null {
-  if (!g?.startFinish) return null;
-  return { startFinish: g.startFinish, sectors: g.sectors ?? [], pitEntry: g.pitEntry ?? undefined, pitExit: g.pitExit ?? undefined };
-}
-
 /** The session's rows as the page analyses read them. Ingest maps its own rows through this too, so both hash to the same basis. */
 export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title">, lapRows: LapModel[], bikeRow: Bike | null, trackRow: Track | null): AnalysisInputs {
-  const laps: Lap[] = lapRows.map((l) => ({
-    number: l.number,
-    startTimeS: l.startTimeS,
-    endTimeS: l.endTimeS,
-    lapTimeMs: l.lapTimeMs,
-    sectorTimesMs: jsonColumn<(number | null)[]>(l.sectorTimesMs) ?? [],
-    outLap: Boolean(l.isOutLap),
-    inLap: Boolean(l.isInLap),
-    pitPass: Boolean(l.pitPass),
-    complete: jsonColumn<{ complete?: boolean }>(l.stats)?.complete ?? (!l.isOutLap && !l.isInLap),
-    invalid: Boolean(l.isInvalid),
-    ...(jsonColumn<{ suspect?: boolean }>(l.stats)?.suspect ? { suspect: true } : {}),
-  }));
+  const laps: Lap[] = lapRows.map((l) => {
+    const { complete, suspect } = storedLapState(jsonColumn<{ complete?: boolean; suspect?: boolean }>(l.stats), Boolean(l.isOutLap), Boolean(l.isInLap));
+    return {
+      number: l.number,
+      startTimeS: l.startTimeS,
+      endTimeS: l.endTimeS,
+      lapTimeMs: l.lapTimeMs,
+      sectorTimesMs: jsonColumn<(number | null)[]>(l.sectorTimesMs) ?? [],
+      outLap: Boolean(l.isOutLap),
+      inLap: Boolean(l.isInLap),
+      pitPass: Boolean(l.pitPass),
+      complete,
+      invalid: Boolean(l.isInvalid),
+      ...(suspect ? { suspect: true } : {}),
+    };
+  });
   const bike: BikeInfo | null = bikeRow
     ? {
         id: bikeRow.id,
@@ -79,7 +79,7 @@ export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title"
     sessionId: session.id,
     title: session.title ?? `Session ${session.id}`,
     laps,
-    gates: toLibGates(jsonColumn<StoredGates>(trackRow?.gates)),
+    gates: trackRow ? trackGatesForAnalysis(trackRow) : null,
     bike,
     trackThresholds: jsonColumn<Record<string, number>>(trackRow?.thresholds) ?? {},
     namedCorners: jsonColumn<TrackCorner[]>(trackRow?.corners),

@@ -22,16 +22,5 @@ export function requiredNumber(label: string, min: number, max: number, unit = "
   return optionalNumber(label, min, max, unit).refine((n): n is number => n !== null, `Enter the ${label.toLowerCase()}`);
 }
 
-/** "" → null, otherwise a positive integer id. */
-export const optionalId = z
-  .string()
-  .trim()
-  .regex(/^\d*$/, "Choose one from the list")
-  .transform((s) => (s === "" ? null : Number(s)));
-
-/** Field-by-field messages from a zod error, keyed by the dotted path (first message per field). */
-export function fieldErrors(err: z.ZodError): Record<string, string> {
-  const out: Record<string, string> = {};
-  for (const i of err.issues) out[i.path.length ? i.path.join(".") : "form"] ??= i.message;
-  return out;
-}
+// The id field and zod issues → field errors have one home, lib/forms/form-state.ts.
+export { fieldErrors, optionalId } from "@/lib/forms/form-state";

@@ -17,6 +17,7 @@ import { mappingSchema, validateMapping } from "./imports";
 import { assertCanEditSetup } from "./setup-access";
 import { jsonColumn } from "./json-column";
 import { importFormSchema } from "@/lib/forms/session-form";
+import { fieldErrors } from "@/lib/forms/form-state";
 
 export interface ImportProfileSessionRef {
   id: number;
@@ -122,12 +123,13 @@ export async function updateImportProfile(ctx: TeamContext, id: number, raw: unk
   // Units are checked like on the mapping screen (same schema, with the profile's name as the form's).
   const check = importFormSchema.safeParse({ title: p.name, kind: "practice", eventId: "", bikeId: "", engineId: "", riderId: "", startedAt: "", conditions: "", sharedWithRiders: false, profileName: input.name, timeFormat: input.timeFormat, columns: input.columns });
   if (!check.success) {
-    const fieldErrors: Record<string, string> = {};
-    for (const issue of check.error.issues) {
-      const key = issue.path.join(".");
-      if (key.startsWith("columns") || key === "timeFormat" || key === "profileName") fieldErrors[key === "profileName" ? "name" : key] ??= issue.message;
-    }
-    if (Object.keys(fieldErrors).length) throw new HttpError(422, "Some columns need another look.", fieldErrors);
+    // Only the fields this card shows; the form's profile name is the card's "name".
+    const errors = Object.fromEntries(
+      Object.entries(fieldErrors(check.error))
+        .filter(([key]) => key.startsWith("columns") || key === "timeFormat" || key === "profileName")
+        .map(([key, message]) => [key === "profileName" ? "name" : key, message]),
+    );
+    if (Object.keys(errors).length) throw new HttpError(422, "Some columns need another look.", errors);
   }
   const problems = validateMapping(mapping);
   if (problems.length) throw new HttpError(422, problems.join(" "));

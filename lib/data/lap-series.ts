@@ -18,6 +18,7 @@ import { HttpError } from "@/lib/http/http-error";
 import { ROLE_LABEL, ROLE_SI_UNIT, type ChannelRole } from "@/lib/channels/roles";
 import { distanceChannel } from "@/lib/laps/distance-channel";
 import type { SeriesLike } from "@/lib/laps/types";
+import { lowerBound } from "@/lib/laps/lower-bound";
 import { resampleOnDistance } from "@/lib/compare/resample-on-distance";
 import { gather, gridColumns, keptIndices, markMinMax, resampleDecimate } from "@/lib/compare/resample-decimate";
 import { brakingPoints } from "@/lib/braking/braking-points";
@@ -114,18 +115,6 @@ const pathCache = new Lru<CachedPath | null>(64);
 export function clearLapSeriesCaches() {
   distanceCache.clear();
   pathCache.clear();
-}
-
-/** Index of the first element ≥ v in an ascending array. */
-function lowerBound(a: ArrayLike<number>, v: number): number {
-  let lo = 0;
-  let hi = a.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (a[mid] < v) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
 }
 
 /** y at time t by linear interpolation between the samples either side (NaN if one is missing). */

@@ -1,5 +1,6 @@
 import "server-only";
 import { jsonColumn } from "./json-column";
+import { storedLapState } from "@/lib/laps/stored-lap-state";
 /** A session's laps as plain objects, for the lap table, the exports and Compare. */
 // Raw SELECTs rather than model instances: Compare asks for laps on every chart request, and
 // these rows only ever become plain objects.
@@ -63,9 +64,9 @@ const LAP_COLUMNS = `l.session_id AS sessionId, l.number AS number, l.start_time
   l.is_out_lap AS isOutLap, l.is_in_lap AS isInLap, l.is_invalid AS isInvalid, l.pit_pass AS pitPass, l.stats AS stats`;
 
 function toRow(l: LapDbRow): LapRow {
-  const stats = jsonColumn<{ complete?: boolean; suspect?: boolean }>(l.stats);
   const outLap = Boolean(l.isOutLap);
   const inLap = Boolean(l.isInLap);
+  const { complete, suspect } = storedLapState(jsonColumn<{ complete?: boolean; suspect?: boolean }>(l.stats), outLap, inLap);
   return {
     sessionId: l.sessionId,
     number: l.number,
@@ -79,10 +80,8 @@ function toRow(l: LapDbRow): LapRow {
     inLap,
     pitPass: Boolean(l.pitPass),
     invalid: Boolean(l.isInvalid),
-    // Laps are stored without a "complete" column: only the out-lap and the in-lap can be cut
-    // off by the log's ends, unless the analysis says otherwise in stats.
-    complete: stats?.complete ?? (!outLap && !inLap),
-    suspect: Boolean(stats?.suspect),
+    complete,
+    suspect,
   };
 }
 

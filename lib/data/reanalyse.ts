@@ -8,12 +8,12 @@
 import type { Sequelize } from "sequelize";
 import { initModels, RideSession } from "@/models";
 import type { SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
-import { CHANNEL_ROLES } from "@/lib/channels/roles";
+import { ANALYSED_ROLES } from "@/lib/analysis/analysed-roles";
 import { loadSessionSeries } from "./session-series";
 import { analyseSessionInTransaction } from "./session-analysis";
 
-/** Every role but "other": the same channels the analysis saw at ingest (seriesFromParsed). */
-const ANALYSIS_ROLES = CHANNEL_ROLES.filter((r) => r !== "other" && r !== "time");
+/** The same channels the analysis kept at ingest (seriesFromParsed): the roles the analysis declares it reads. */
+const ANALYSIS_ROLES = [...ANALYSED_ROLES];
 
 /** Recompute laps, findings and summary of a ready session. Null when the session is not ready (nothing stored to read). */
 export async function reanalyseSession(sequelize: Sequelize, sessionId: number): Promise<SessionAnalysisSummary | null> {

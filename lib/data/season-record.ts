@@ -10,6 +10,8 @@ import { getSequelize } from "@/models/db";
 import type { TeamContext } from "@/lib/auth/guard";
 import { lapFigures, type RecordLap } from "@/lib/record/lap-figures";
 import { bestPerPair } from "@/lib/record/best-per-pair";
+import { storedLapState } from "@/lib/laps/stored-lap-state";
+import { jsonColumn } from "./json-column";
 import { eventProgression, type ProgressionPoint } from "@/lib/record/event-progression";
 
 export interface SeasonFilters {
@@ -111,16 +113,17 @@ export async function seasonBaseRows(ctx: TeamContext, where = "", params: (stri
 export async function lapsOfSessions(ids: number[]): Promise<Map<number, RecordLap[]>> {
   const out = new Map<number, RecordLap[]>();
   if (ids.length === 0) return out;
-  const rows = await getSequelize().query<{ sessionId: number; number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMs: number | null; sectorTimesMs: unknown }>(
+  const rows = await getSequelize().query<{ sessionId: number; number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMs: number | null; sectorTimesMs: unknown; stats: unknown }>(
     `SELECT session_id AS sessionId, number, lap_time_ms AS lapTimeMs, is_out_lap AS isOutLap, is_in_lap AS isInLap, is_invalid AS isInvalid,
-            pit_pass AS pitPass, top_speed_ms AS topSpeedMs, sector_times_ms AS sectorTimesMs
+            pit_pass AS pitPass, top_speed_ms AS topSpeedMs, sector_times_ms AS sectorTimesMs, stats
        FROM laps WHERE session_id IN (${ids.map(() => "?").join(",")}) ORDER BY session_id, number`,
     { replacements: ids, type: QueryTypes.SELECT },
   );
   for (const r of rows) {
     const sectors = typeof r.sectorTimesMs === "string" ? (JSON.parse(r.sectorTimesMs) as number[] | null) : (r.sectorTimesMs as number[] | null);
     const list = out.get(r.sessionId) ?? [];
-    list.push({ number: r.number, lapTimeMs: r.lapTimeMs, isOutLap: !!r.isOutLap, isInLap: !!r.isInLap, isInvalid: !!r.isInvalid, pitPass: !!r.pitPass, topSpeedMs: r.topSpeedMs, sectorTimesMs: sectors });
+    const state = storedLapState(jsonColumn<{ complete?: boolean; suspect?: boolean }>(r.stats), !!r.isOutLap, !!r.isInLap);
+    list.push({ number: r.number, lapTimeMs: r.lapTimeMs, isOutLap: !!r.isOutLap, isInLap: !!r.isInLap, isInvalid: !!r.isInvalid, pitPass: !!r.pitPass, topSpeedMs: r.topSpeedMs, sectorTimesMs: sectors, ...state });
     out.set(r.sessionId, list);
   }
   return out;

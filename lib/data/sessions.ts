@@ -1,6 +1,6 @@
 import "server-only";
 /** Read access to ride sessions as plain objects, with the role rules applied: a rider sees their own sessions and those shared with riders, every other role all of the team's. */
-import { Op, type WhereOptions } from "sequelize";
+import { Op, literal, type WhereOptions } from "sequelize";
 import { initModels, RideSession, Rider, Bike, RaceEvent, type SessionKind, type SessionStatus } from "@/models";
 import type { TeamContext } from "@/lib/auth/guard";
 
@@ -18,27 +18,32 @@ export interface SessionListItem {
   eventName: string | null;
 }
 
-/** Riders see their own sessions and those shared with riders; every other role sees all. */
-export async function sessionVisibility(ctx: TeamContext): Promise<WhereOptions> {
-  initModels();
-  const base = { teamId: ctx.teamId };
-  if (ctx.role !== "rider") return base;
-  const mine = await Rider.findAll({ where: { teamId: ctx.teamId, userId: ctx.userId }, attributes: ["id"] });
-  const ids = mine.map((r) => r.id);
-  return { ...base, [Op.or]: [{ sharedWithRiders: true }, ...(ids.length ? [{ riderId: { [Op.in]: ids } }] : [])] };
+/**
+ * The one rider-visibility rule, as SQL over ride_sessions aliased `alias`: a rider sees the
+ * sessions shared with riders and those of the team's rider rows linked to their sign-in (a
+ * subquery, so the rule costs no extra round trip). Every other role sees all of the team's.
+ * Both forms below — raw SQL and the Sequelize condition — are built from this text.
+ */
+function riderSeesSql(alias: string): string {
+  return `(${alias}.shared_with_riders = 1 OR ${alias}.rider_id IN (SELECT id FROM riders WHERE team_id = ? AND user_id = ?))`;
 }
 
-/**
- * The same rule as sessionVisibility, as SQL over ride_sessions aliased `alias`, for raw queries
- * on hot paths: the rider's own riders are a subquery, so the rule costs no extra round trip.
- */
+/** The rule for Sequelize finders on RideSession (aliased by its model name, as Sequelize does). */
+export async function sessionVisibility(ctx: TeamContext): Promise<WhereOptions> {
+  const sequelize = initModels();
+  const base = { teamId: ctx.teamId };
+  if (ctx.role !== "rider") return base;
+  const values = [ctx.teamId, ctx.userId];
+  let k = 0;
+  const filled = riderSeesSql(`\`${RideSession.name}\``).replace(/\?/g, () => sequelize.escape(values[k++] ?? null));
+  return { ...base, [Op.and]: [literal(filled)] };
+}
+
+/** The same rule as raw SQL with replacements, for hot paths that query ride_sessions directly. */
 export function sessionVisibilitySql(ctx: TeamContext, alias: string): { sql: string; replacements: (string | number)[] } {
   const base = `${alias}.team_id = ?`;
   if (ctx.role !== "rider") return { sql: base, replacements: [ctx.teamId] };
-  return {
-    sql: `(${base} AND (${alias}.shared_with_riders = 1 OR ${alias}.rider_id IN (SELECT id FROM riders WHERE team_id = ? AND user_id = ?)))`,
-    replacements: [ctx.teamId, ctx.teamId, ctx.userId],
-  };
+  return { sql: `(${base} AND ${riderSeesSql(alias)})`, replacements: [ctx.teamId, ctx.teamId, ctx.userId] };
 }
 
 export async function listRecentSessions(ctx: TeamContext, limit = 20): Promise<SessionListItem[]> {

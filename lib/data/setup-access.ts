@@ -11,9 +11,3 @@ export function assertCanEditSetup(ctx: TeamContext): void {
 export function canEditSetup(ctx: TeamContext): boolean {
   return roleCan(ctx.role, { setup: ["edit"] });
 }
-
-/** A route id as a positive integer, or null (→ 404 by the caller). */
-export function parseId(raw: string | number | null | undefined): number | null {
-  const n = typeof raw === "number" ? raw : Number(raw);
-  return Number.isInteger(n) && n > 0 && n < 2 ** 31 ? n : null;
-}

@@ -12,7 +12,8 @@ import { getSequelize } from "@/models/db";
 import type { TeamContext } from "@/lib/auth/guard";
 import { HttpError, notFound } from "@/lib/http/http-error";
 import { gateFromPoints } from "@/lib/geo/gate-from-points";
-import { lapOutline, thin } from "@/lib/geo/lap-outline";
+import { lapOutline } from "@/lib/geo/lap-outline";
+import { thinFixes } from "@/lib/geo/thin-fixes";
 import { pathDistances } from "@/lib/geo/path-distances";
 import { loadSessionSeries } from "./session-series";
 import { sessionVisibility, sessionVisibilitySql } from "./sessions";
@@ -202,9 +203,7 @@ async function sessionGps(sessionId: number): Promise<{ lat: ArrayLike<number>; 
 
 /** Thin to ~4 m and cap the point count, so the page stays light even for an hour of 25 Hz fixes. */
 function thinTrace(lat: ArrayLike<number>, lon: ArrayLike<number>): [number, number][] {
-  const pts = thin(lat, lon, 4);
-  const step = Math.max(1, Math.ceil(pts.length / 8000));
-  return step === 1 ? pts : pts.filter((_, i) => i % step === 0);
+  return thinFixes(lat, lon, 4, 8000);
 }
 
 export async function getTrackEditor(ctx: TeamContext, id: number, sessionId?: number | null): Promise<TrackEditorData> {

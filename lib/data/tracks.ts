@@ -4,41 +4,15 @@
  * Tracks belong to a team; nothing here reads another team's tracks.
  */
 import type { Sequelize, Transaction } from "sequelize";
-import { initModels, Track, type Gate as ModelGate, type TrackCorner, type TrackGates as ModelTrackGates } from "@/models";
-import type { SeriesLike, TrackGates } from "@/lib/laps/types";
-import type { Gate } from "@/lib/geo/types";
+import { initModels, Track, type TrackCorner, type TrackGates as ModelTrackGates } from "@/models";
+import type { SeriesLike } from "@/lib/laps/types";
 import { haversineM } from "@/lib/findings/haversine-m";
 
 /** How far a session's median position may lie from a track's centre for the track to be guessed, m. */
 export const GUESS_TRACK_MAX_M = 5000;
 
-/**
- * Average lap speed no circuit lap reaches, m/s (324 km/h; the fastest circuit laps average well
- * under 260 km/h — common practice). Track length over this is a lap time no real lap beats, so a
- * start/finish crossing sooner than that is a double count.
- */
-const MAX_LAP_AVERAGE_MS = 90;
-
-const gateOf = (g: ModelGate | null | undefined): Gate | undefined =>
-  g && Number.isFinite(g.a?.lat) && Number.isFinite(g.a?.lon) && Number.isFinite(g.b?.lat) && Number.isFinite(g.b?.lon)
-    ? { a: { lat: g.a.lat, lon: g.a.lon }, b: { lat: g.b.lat, lon: g.b.lon } }
-    : undefined;
-
-/**
- * The model's gates as lib/laps TrackGates, or null without a start/finish gate. Minimum lap
- * time: the track's `minLapTimeS` threshold when set, else its length at MAX_LAP_AVERAGE_MS,
- * else left to detectLaps (40 % of the median crossing interval).
- */
-export function trackGatesForAnalysis(track: Pick<Track, "gates" | "lengthM" | "thresholds">): TrackGates | null {
-  const g = track.gates;
-  const startFinish = gateOf(g?.startFinish);
-  if (!g || !startFinish) return null;
-  const sectors = (g.sectors ?? []).map(gateOf).filter((x): x is Gate => x !== undefined);
-  const set = track.thresholds?.minLapTimeS;
-  const minLapTimeS =
-    typeof set === "number" && set > 0 ? set : track.lengthM && track.lengthM > 0 ? track.lengthM / MAX_LAP_AVERAGE_MS : undefined;
-  return { startFinish, sectors, pitEntry: gateOf(g.pitEntry), pitExit: gateOf(g.pitExit), ...(minLapTimeS ? { minLapTimeS } : {}) };
-}
+// Stored gates → lap-detection gates: one definition, shared with ingest and the page analyses.
+export { trackGatesForAnalysis } from "@/lib/laps/track-gates-for-analysis";
 
 /** Median latitude and longitude of the session's GPS fixes (about 2 000 fixes, evenly spread, are plenty). */
 export function medianPosition(series: SeriesLike): { lat: number; lon: number } | null {

@@ -31,3 +31,6 @@ export function detectBottoming(dc: DetectorContext): Finding[] {
   }
   return out;
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectBottoming.reads = ["fork_travel", "shock_travel"] as const;

@@ -85,3 +85,6 @@ export function detectBrakeOnStraight(dc: DetectorContext): Finding[] {
     });
   });
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectBrakeOnStraight.reads = ["brake_front", "throttle", "lean_angle"] as const;

@@ -24,3 +24,6 @@ export function detectClockGaps(dc: DetectorContext): Finding[] {
   }
   return out;
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectClockGaps.reads = [] as const;

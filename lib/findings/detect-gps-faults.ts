@@ -99,3 +99,6 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
   flushJump();
   return out;
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectGpsFaults.reads = ["gps_lat", "gps_lon", "gps_speed"] as const;

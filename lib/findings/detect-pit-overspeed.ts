@@ -49,3 +49,6 @@ export function detectPitOverspeed(dc: DetectorContext): Finding[] {
     });
   });
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectPitOverspeed.reads = ["gps_lat", "gps_lon"] as const;

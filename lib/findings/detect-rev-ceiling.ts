@@ -28,3 +28,6 @@ export function detectRevCeiling(dc: DetectorContext): Finding[] {
     });
   });
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectRevCeiling.reads = ["engine_rpm"] as const;

@@ -102,3 +102,6 @@ export function detectSensorFlat(dc: DetectorContext): Finding[] {
   }
   return out;
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectSensorFlat.reads = ["speed_front", "speed_rear", "engine_rpm", "fork_travel", "shock_travel", "lean_angle", "accel_long", "accel_lat"] as const;

@@ -30,3 +30,6 @@ export function detectWheelSpin(dc: DetectorContext): Finding[] {
     }),
   );
 }
+
+/** The channel roles this detector reads (besides the ground speed every detector gets: DETECTOR_CONTEXT_READS). */
+detectWheelSpin.reads = ["speed_front", "speed_rear", "throttle"] as const;

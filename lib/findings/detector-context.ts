@@ -1,6 +1,7 @@
 import type { SeriesLike } from "@/lib/laps/types";
 import { checkWheelSensor, type WheelSensorCheck } from "@/lib/laps/live-wheel-speed";
 import { DEFAULT_THRESHOLDS, type ThresholdKey, type Thresholds } from "./thresholds";
+import { resolveThreshold } from "./resolve-thresholds";
 import type { FindingsContext, LapSpan } from "./types";
 
 export interface DetectorContext {
@@ -49,11 +50,14 @@ function makeLapOf(laps: readonly LapSpan[] | undefined) {
   };
 }
 
-/** Thresholds resolved once: team settings over DEFAULT_THRESHOLDS, then the shared series facts. */
+/** The roles buildDetectorContext reads for every detector: the wheel speeds and GPS speed behind the ground speed. */
+export const DETECTOR_CONTEXT_READS = ["speed_front", "speed_rear", "gps_speed"] as const;
+
+/** Thresholds resolved once (resolveThreshold: team settings over DEFAULT_THRESHOLDS), then the shared series facts. */
 export function buildDetectorContext(series: SeriesLike, ctx: FindingsContext): DetectorContext {
   const th = {} as Thresholds;
   for (const key of Object.keys(DEFAULT_THRESHOLDS) as ThresholdKey[]) {
-    th[key] = ctx.thresholds?.[key] ?? DEFAULT_THRESHOLDS[key].value;
+    th[key] = resolveThreshold(key, null, ctx.thresholds).value;
   }
   const c = series.channels;
   const front = checkWheelSensor(series, "speed_front");

@@ -7,7 +7,8 @@ import { detectPitOverspeed } from "./detect-pit-overspeed";
 import { detectRevCeiling } from "./detect-rev-ceiling";
 import { detectSensorFlat } from "./detect-sensor-flat";
 import { detectWheelSpin } from "./detect-wheel-spin";
-import { buildDetectorContext } from "./detector-context";
+import { buildDetectorContext, DETECTOR_CONTEXT_READS } from "./detector-context";
+import type { ChannelRole } from "@/lib/channels/roles";
 import type { Finding, FindingsContext } from "./types";
 
 const DETECTORS = [
@@ -20,6 +21,9 @@ const DETECTORS = [
   detectGpsFaults,
   detectClockGaps,
 ];
+
+/** Every role the findings read: each detector's own declaration and the shared context's. */
+export const FINDINGS_READS: readonly ChannelRole[] = [...new Set<ChannelRole>([...DETECTOR_CONTEXT_READS, ...DETECTORS.flatMap((d) => d.reads)])];
 
 /**
  * Everything that looks wrong in a session, one Finding per event (consecutive samples merged),

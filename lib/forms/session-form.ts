@@ -5,6 +5,7 @@
 import { z } from "zod";
 import { CHANNEL_ROLES, type ChannelRole } from "@/lib/channels/roles";
 import { lookupUnit, ROLE_QUANTITY } from "@/lib/ingest/units";
+import { optionalId } from "./form-state";
 
 export const SESSION_KINDS = ["practice", "qualifying", "race", "test"] as const;
 export type SessionKindValue = (typeof SESSION_KINDS)[number];
@@ -15,11 +16,6 @@ export const TIME_FORMAT_LABEL: Record<(typeof TIME_FORMATS)[number], string> = 
   iso8601: "ISO 8601 date and time",
 };
 
-/** A select of team rows: "" = none chosen; otherwise a row id. */
-const optionalId = z
-  .string()
-  .regex(/^\d*$/, "Choose one from the list")
-  .transform((s) => (s === "" ? null : Number(s)));
 
 /** `<input type="datetime-local">` value, read as UTC (all times on screen are UTC). */
 const startedAt = z
@@ -90,19 +86,4 @@ export const importFormSchema = sessionDetailsSchema.extend({
 export type ImportFormInput = z.input<typeof importFormSchema>;
 export type ImportFormValues = z.output<typeof importFormSchema>;
 
-/** What a form action answers: a message, and errors by field path ("title", "columns.3.unit"). */
-export interface FormState {
-  ok?: boolean;
-  message?: string;
-  errors?: Record<string, string>;
-}
-
-/** Zod issues → errors by dotted field path, first message per field. */
-export function issuesToErrors(issues: readonly { path: readonly PropertyKey[]; message: string }[]): Record<string, string> {
-  const out: Record<string, string> = {};
-  for (const i of issues) {
-    const key = i.path.map(String).join(".") || "form";
-    out[key] ??= i.message;
-  }
-  return out;
-}
+export type { FormState } from "./form-state";

@@ -1,4 +1,5 @@
 import { toLocalMetres } from "./to-local-metres";
+import { thinFixes } from "./thin-fixes";
 
 export interface LapOutlineOptions {
   /** Keep a point only when it is this far from the last kept one (m): thins 25 Hz fixes. */
@@ -21,7 +22,7 @@ export function lapOutline(
   lonDeg: ArrayLike<number>,
   { spacingM = 3, minLapM = 400, closeM = 20 }: LapOutlineOptions = {},
 ): [number, number][] | null {
-  const pts = thin(latDeg, lonDeg, spacingM);
+  const pts = thinFixes(latDeg, lonDeg, spacingM);
   if (pts.length < 20) return null;
   const proj = toLocalMetres({ lat: pts[0][0], lon: pts[0][1] });
   const x = pts.map((p) => proj.xM(p[1]));
@@ -37,32 +38,6 @@ export function lapOutline(
   const pick = loops[Math.floor((loops.length - 1) / 2)];
   const out = pts.slice(pick.from, pick.to + 1);
   out.push([out[0][0], out[0][1]]);
-  return out;
-}
-
-/** Finite fixes, at least `spacingM` apart. */
-export function thin(latDeg: ArrayLike<number>, lonDeg: ArrayLike<number>, spacingM: number): [number, number][] {
-  const out: [number, number][] = [];
-  let proj: ReturnType<typeof toLocalMetres> | null = null;
-  let lx = 0;
-  let ly = 0;
-  for (let i = 0; i < latDeg.length; i++) {
-    const la = latDeg[i];
-    const lo = lonDeg[i];
-    if (!Number.isFinite(la) || !Number.isFinite(lo) || (la === 0 && lo === 0)) continue;
-    if (!proj) {
-      proj = toLocalMetres({ lat: la, lon: lo });
-      out.push([la, lo]);
-      continue;
-    }
-    const px = proj.xM(lo);
-    const py = proj.yM(la);
-    if (Math.hypot(px - lx, py - ly) >= spacingM) {
-      out.push([la, lo]);
-      lx = px;
-      ly = py;
-    }
-  }
   return out;
 }
 

@@ -52,6 +52,6 @@ export interface Lap {
 }
 
 /** A flying lap: complete and not out, in, pit-pass, marked invalid or suspect. */
-export function isFlyingLap(lap: Lap): boolean {
+export function isFlyingLap(lap: Pick<Lap, "complete" | "outLap" | "inLap" | "pitPass" | "invalid" | "suspect">): boolean {
   return lap.complete && !lap.outLap && !lap.inLap && !lap.pitPass && !lap.invalid && !lap.suspect;
 }

@@ -7,6 +7,7 @@
 import { QueryTypes, type Sequelize } from "sequelize";
 import { config } from "../config";
 import { lapFigures, type RecordLap } from "../record/lap-figures";
+import { storedLapState } from "../laps/stored-lap-state";
 import { formatLapTime } from "../export/format-lap-time";
 import { storedJsonParse } from "../analysis/stored-json";
 import type { SessionReadyMailProps } from "../../components/mail/session-ready-mail";
@@ -60,8 +61,8 @@ export async function notifySessionReady(sequelize: Sequelize, sessionId: number
     );
     if (!s || s.status !== "ready") return out;
     const [laps, findings, parts, people] = await Promise.all([
-      sequelize.query<{ number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMs: number | null }>(
-        "SELECT number, lap_time_ms AS lapTimeMs, is_out_lap AS isOutLap, is_in_lap AS isInLap, is_invalid AS isInvalid, pit_pass AS pitPass, top_speed_ms AS topSpeedMs FROM laps WHERE session_id = ?",
+      sequelize.query<{ number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMs: number | null; stats: unknown }>(
+        "SELECT number, lap_time_ms AS lapTimeMs, is_out_lap AS isOutLap, is_in_lap AS isInLap, is_invalid AS isInvalid, pit_pass AS pitPass, top_speed_ms AS topSpeedMs, stats FROM laps WHERE session_id = ?",
         { replacements: [sessionId], type: QueryTypes.SELECT },
       ),
       sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM findings WHERE session_id = ?", { replacements: [sessionId], type: QueryTypes.SELECT }),
@@ -78,7 +79,12 @@ export async function notifySessionReady(sequelize: Sequelize, sessionId: number
         { replacements: [sessionId, s.riderUserId, s.riderUserId, s.teamId, s.teamId], type: QueryTypes.SELECT },
       ),
     ]);
-    const f = lapFigures(laps.map((l): RecordLap => ({ ...l, isOutLap: !!l.isOutLap, isInLap: !!l.isInLap, isInvalid: !!l.isInvalid, pitPass: !!l.pitPass })));
+    const f = lapFigures(
+      laps.map(({ stats, ...l }): RecordLap => {
+        const state = storedLapState((typeof stats === "string" ? JSON.parse(stats) : stats) as { complete?: boolean; suspect?: boolean } | null, !!l.isOutLap, !!l.isInLap);
+        return { ...l, isOutLap: !!l.isOutLap, isInLap: !!l.isInLap, isInvalid: !!l.isInvalid, pitPass: !!l.pitPass, ...state };
+      }),
+    );
     const base = config.appUrl.replace(/\/$/, "");
     const title = s.title ?? `Session ${s.id}`;
     const common: Omit<SessionReadyMailProps, "audience" | "url" | "briefLines"> = {

@@ -1,8 +1,12 @@
 /**
  * The figures a season record keeps of one session: the best lap, the mean of the best three
- * flying laps and the top speed. Flying laps are the timed laps that are neither out-lap, in-lap,
- * pit-lane pass nor invalid — the usual reading of a timing sheet (common practice).
+ * flying laps and the top speed. Flying laps are those of isFlyingLap, the rule the session pages
+ * use: complete timed laps that are neither out-lap, in-lap, pit-lane pass, invalid nor suspect —
+ * the usual reading of a timing sheet (common practice).
  */
+import { isFlyingLap } from "../laps/types";
+import { storedLapState } from "../laps/stored-lap-state";
+
 export interface RecordLap {
   number: number;
   lapTimeMs: number;
@@ -12,6 +16,9 @@ export interface RecordLap {
   pitPass: boolean;
   topSpeedMs: number | null;
   sectorTimesMs?: number[] | null;
+  /** From the row's stats (storedLapState); absent on rows written before they were kept. */
+  complete?: boolean;
+  suspect?: boolean;
 }
 
 export interface LapFigures {
@@ -27,7 +34,11 @@ export interface LapFigures {
 }
 
 export function lapFigures(laps: readonly RecordLap[]): LapFigures {
-  const flying = laps.filter((l) => !l.isOutLap && !l.isInLap && !l.isInvalid && !l.pitPass && Number.isFinite(l.lapTimeMs) && l.lapTimeMs > 0);
+  const flying = laps.filter((l) => {
+    const { complete, suspect } = storedLapState(l, l.isOutLap, l.isInLap);
+    const flyingLap = isFlyingLap({ complete, suspect, outLap: l.isOutLap, inLap: l.isInLap, pitPass: l.pitPass, invalid: l.isInvalid });
+    return flyingLap && Number.isFinite(l.lapTimeMs) && l.lapTimeMs > 0;
+  });
   const sorted = [...flying].sort((a, b) => a.lapTimeMs - b.lapTimeMs || a.number - b.number);
   let top: number | null = null;
   for (const l of laps) if (l.topSpeedMs != null && Number.isFinite(l.topSpeedMs) && (top === null || l.topSpeedMs > top)) top = l.topSpeedMs;

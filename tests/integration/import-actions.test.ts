@@ -12,7 +12,8 @@ import { runIngestJob } from "@/workers/ingest/run-ingest-job";
 import { confirmSessionImport, getImportScreen, reimportSession, sessionFormOptions, updateSessionDetails } from "@/lib/data/session-details";
 import { getSessionOverview } from "@/lib/data/session-overview";
 import { listSessions } from "@/lib/data/session-list";
-import { importFormSchema, sessionDetailsSchema, issuesToErrors, type ImportFormInput } from "@/lib/forms/session-form";
+import { importFormSchema, sessionDetailsSchema, type ImportFormInput } from "@/lib/forms/session-form";
+import { fieldErrors } from "@/lib/forms/form-state";
 import type { TeamContext } from "@/lib/auth/guard";
 import type { TeamRole } from "@/lib/auth/permissions";
 import { HttpError } from "@/lib/http/http-error";
@@ -151,7 +152,7 @@ describe("import screen → confirm → parse → session page", () => {
       ],
     });
     expect(bad.success).toBe(false);
-    const errors = issuesToErrors(bad.error!.issues);
+    const errors = fieldErrors(bad.error!.issues);
     expect(errors.title).toMatch(/title/);
     expect(errors.startedAt).toMatch(/date and time/);
     expect(errors["columns.1.scale"]).toMatch(/number/);

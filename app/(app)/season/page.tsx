@@ -3,7 +3,7 @@ import Link from "next/link";
 import { cookies } from "next/headers";
 import { pageTeam } from "@/lib/auth/page-guard";
 import { getSeasonRecord } from "@/lib/data/season-record";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { UNIT_COOKIE, displayUnitIn, parseUnitSystem } from "@/lib/units/unit-system";
 import { formatLapTime } from "@/lib/export/format-lap-time";
 import { SeasonTable } from "@/components/record/season-table";

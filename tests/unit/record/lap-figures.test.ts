@@ -8,6 +8,7 @@ import { mean } from "simple-statistics";
 import { lapFigures, type RecordLap } from "@/lib/record/lap-figures";
 import { bestPerPair } from "@/lib/record/best-per-pair";
 import { eventProgression } from "@/lib/record/event-progression";
+import { storedLapState } from "@/lib/laps/stored-lap-state";
 
 const lap = (number: number, lapTimeMs: number, extra: Partial<RecordLap> = {}): RecordLap => ({ number, lapTimeMs, isOutLap: false, isInLap: false, isInvalid: false, pitPass: false, topSpeedMs: null, ...extra });
 
@@ -29,6 +30,27 @@ describe("lapFigures", () => {
     expect(lapFigures([lap(1, 90_000), lap(2, 91_000), lap(3, 50_000, { pitPass: true })]).bestThreeMeanMs).toBeNull();
     const none = lapFigures([]);
     expect(none).toMatchObject({ bestLapMs: null, bestThreeMeanMs: null, topSpeedMs: null, flyingLapCount: 0 });
+  });
+});
+
+describe("the lap rules the record shares with the session pages", () => {
+  // A lap that two missed crossings merged (suspect) or one the log's end cut off (not complete)
+  // is not a flying lap on a timing sheet (common practice); the record now reads both states.
+  it("leaves suspect and incomplete laps out, as isFlyingLap does", () => {
+    const laps = [lap(1, 92_000), lap(2, 91_000), lap(3, 184_500, { suspect: true }), lap(4, 60_000, { complete: false }), lap(5, 93_000)];
+    const f = lapFigures(laps);
+    expect(f.flyingLapCount).toBe(3);
+    expect(f.bestLapMs).toBe(91_000);
+    expect(f.bestThreeMeanMs).toBeCloseTo(mean([91_000, 92_000, 93_000]), 9);
+  });
+
+  it("storedLapState: rows without the keys are complete unless out- or in-lap, never suspect", () => {
+    expect(storedLapState(null, false, false)).toEqual({ complete: true, suspect: false });
+    expect(storedLapState(null, true, false)).toEqual({ complete: false, suspect: false });
+    expect(storedLapState({}, false, true)).toEqual({ complete: false, suspect: false });
+    expect(storedLapState({ complete: true }, true, false)).toEqual({ complete: true, suspect: false });
+    expect(storedLapState({ complete: false, suspect: true }, false, false)).toEqual({ complete: false, suspect: true });
+    expect(storedLapState({ complete: "yes", suspect: 1 }, false, false)).toEqual({ complete: true, suspect: false });
   });
 });
 

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { pageTeam } from "@/lib/auth/page-guard";
-import { parseId } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { EFFECT_CAUTION, getSetupEffects } from "@/lib/data/setup-history";
 import { SETUP_FIELDS } from "@/lib/data/setup-sheets";
 import { EffectList } from "@/components/record/effect-list";

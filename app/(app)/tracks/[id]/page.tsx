@@ -3,7 +3,8 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { pageTeam } from "@/lib/auth/page-guard";
 import { getTrackEditor } from "@/lib/data/track-editor";
-import { canEditSetup, parseId } from "@/lib/data/setup-access";
+import { canEditSetup } from "@/lib/data/setup-access";
+import { parseId } from "@/lib/http/parse-id";
 import { HttpError } from "@/lib/http/http-error";
 import { GateEditor } from "@/components/tracks/gate-editor";
 

@@ -1,7 +1,7 @@
 import { FLOAT64_ROLES } from "@/lib/channels/roles";
 import { Readable } from "node:stream";
 import Papa from "papaparse";
-import { countLf, readCsvPreamble } from "./csv-preamble";
+import { readCsvPreamble } from "./csv-preamble";
 import { CsvRowReader, type RowReaderConfig } from "./csv-row-reader";
 import { decodeTextStream, type DecodeProgress } from "./decode-text-stream";
 import { IngestError, quoteForMessage } from "./ingest-error";
@@ -224,15 +224,19 @@ async function readOnThreads(
   const it = text[Symbol.asyncIterator]();
   const inFlight: { text: string; result: Promise<Awaited<ReturnType<CsvChunkRunner["run"]>>> }[] = [];
   const maxInFlight = threads.threads * 2;
-  let nextLine = reader.line;
   let pending = "";
 
   const dispatch = (chunk: string) => {
-    const result = threads.run({ cfg, roles, text: chunk, firstLine: nextLine });
+    if (store.rows === 0) {
+      // Until a row is stored (and with it the file's first time), ranges are read here.
+      reader.processText(chunk);
+      share.stored += chunk.length + 1;
+      return;
+    }
+    const result = threads.run({ cfg, roles, text: chunk, t0: reader.t0 });
     // Settled here too, so a refusal of an earlier range leaves no unhandled rejection behind.
     result.catch(() => undefined);
     inFlight.push({ text: chunk, result });
-    nextLine += countLf(chunk) + 1;
   };
   const mergeOldest = async () => {
     const c = inFlight.shift()!;

@@ -56,6 +56,8 @@ export interface SampleBlockStoreOptions {
   expectedBytes?: number;
   /** Bytes of the file behind the rows stored so far (for that estimate). */
   bytesDone: () => number;
+  /** Rows per block without a sink (default BLOCK_ROWS): a range of known length takes one block of its size. */
+  blockRows?: number;
 }
 
 export class SampleBlockStore {
@@ -95,7 +97,7 @@ export class SampleBlockStore {
     if (this.sink && !(Number.isInteger(sinkRows) && sinkRows > 0)) throw new Error(`sink.blockRows must be a positive integer, got ${sinkRows}`);
     this.sinkRows = sinkRows;
     // Storage blocks hold whole sink blocks, so each sink block is a view of one storage block.
-    this.blockRows = this.sink ? Math.ceil(BLOCK_ROWS / sinkRows) * sinkRows : BLOCK_ROWS;
+    this.blockRows = this.sink ? Math.ceil(BLOCK_ROWS / sinkRows) * sinkRows : Math.max(1, options.blockRows ?? BLOCK_ROWS);
     this.curRows = this.blockRows;
     this.valueBlocks = roles.map(() => []);
     this.keptTime = this.sink ? new Float64Array(this.blockRows) : null;
@@ -220,6 +222,7 @@ export class SampleBlockStore {
   /** Like finish() without a sink, with no yields (a worker thread's chunk; its blocks are few). */
   joinNow(): { timeS: Float64Array; values: SampleArray[] } {
     const rows = this.rows;
+    if (this.timeBlocks.length === 0) return { timeS: this.timeS.subarray(0, rows), values: this.values.map((v) => v.subarray(0, rows)) };
     this.timeBlocks.push(this.timeS.subarray(0, this.pos));
     const timeS = joinBlocks(this.timeBlocks, new Float64Array(rows));
     const values = this.roles.map((role, k) => {

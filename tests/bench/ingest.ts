@@ -33,7 +33,7 @@ import type { Mapping } from "../../lib/ingest/mapping";
 import { median, procStatusMb } from "./proc-memory";
 
 const ROOT = path.resolve(__dirname, "../..");
-const TARGET_RATIO = 1.5;
+const TARGET_RATIO = 1.0;
 const TARGET_PEAK_RSS_MB = 300;
 /** "Not growing with file size": the large file's peak within 15% of the small file's. */
 const RSS_GROWTH_TOLERANCE = 1.15;

@@ -14,6 +14,6 @@ port.on("message", (msg: { id: number; task: CsvChunkTask }) => {
   } catch {
     result = { ok: false as const };
   }
-  const transfer = result.ok ? [result.timeRaw.buffer as ArrayBuffer, ...result.values.map((v) => v.buffer as ArrayBuffer)] : [];
+  const transfer = result.ok ? [result.timeS.buffer as ArrayBuffer, ...result.values.map((v) => v.buffer as ArrayBuffer)] : [];
   port.postMessage({ id: msg.id, result }, transfer);
 });

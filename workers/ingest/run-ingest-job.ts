@@ -162,7 +162,8 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
         const writer = openSampleWriter(sequelize, t, sessionId);
         let parsed: ParsedSeries;
         try {
-          const threads = opts.csvThreads ?? (Number(log.bytes) >= THREADS_MIN_BYTES ? { runner: sharedCsvThreadPool() } : false);
+          const pool = opts.csvThreads === undefined && Number(log.bytes) >= THREADS_MIN_BYTES ? sharedCsvThreadPool() : null;
+          const threads = opts.csvThreads ?? (pool ? { runner: pool } : false);
           parsed = await parseCsvStream(stream, mapping, limits, onProgress, {
             fileName: log.name,
             sink: writer,

@@ -144,6 +144,21 @@ describe("CSV ranges on worker threads = the single-thread reader", () => {
     expect(await expectSame(text, mappingOf(text), { ...LIMITS, maxRows: 2000 })).toMatch(/^TOO_MANY_ROWS: Line 2007: more than 2,000 rows/);
   });
 
+  it("bytes refused late in the file (bad UTF-8, a zero byte, an over-long line), past the first 64 kB the decoder holds back", async () => {
+    const text = exportCsv(20_000);
+    const at = text.indexOf("\n", Math.floor(text.length * 0.8)) + 3;
+    const badUtf8 = Buffer.concat([Buffer.from(text.slice(0, at)), Buffer.from([0xe9]), Buffer.from(text.slice(at))]);
+    expect(await expectSame(badUtf8, mappingOf(text))).toMatch(/^NOT_UTF8: .*\(line 16\d{3}\)/);
+    const nul = Buffer.concat([Buffer.from(text.slice(0, at)), Buffer.from([0]), Buffer.from(text.slice(at))]);
+    expect(await expectSame(nul, mappingOf(text))).toMatch(/^BINARY_FILE: /);
+    // A bad cell long before the unreadable bytes is what both paths name.
+    const both = exportCsv(20_000, (i, c) => (i === 2000 ? [c[0], "fast", c[2], c[3]] : c));
+    const bothBytes = Buffer.concat([Buffer.from(both.slice(0, at)), Buffer.from([0xe9]), Buffer.from(both.slice(at))]);
+    expect(await expectSame(bothBytes, mappingOf(both))).toMatch(/^NOT_A_NUMBER: Line 2003,/);
+    const long = exportCsv(20_000, (i, c) => (i === 17_000 ? [c[0], c[1], c[2], "9".repeat(2000)] : c));
+    expect(await expectSame(long, mappingOf(long), { ...LIMITS, maxLineBytes: 1000 })).toMatch(/^LINE_TOO_LONG: /);
+  }, 60_000);
+
   it("ISO 8601 date-time stamps", async () => {
     const text = exportCsv(2000, (i, c) => [new Date(Date.UTC(2026, 4, 1, 10) + i * 10).toISOString(), ...c.slice(1)], "Time,Front wheel speed [km/h],Front brake [bar],Note");
     const mapping = mappingOf(text);

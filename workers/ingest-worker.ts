@@ -8,6 +8,7 @@ import { getSequelize } from "../models/db";
 import { initModels, RideSession } from "../models";
 import { claimJob, finishJob, failJob, heartbeat, recoverStaleJobs, retryJob, HEARTBEAT_STALE_S } from "../lib/data/jobs";
 import { runIngestJob, type IngestTimings } from "./ingest/run-ingest-job";
+import { sharedCsvThreadPool } from "./ingest/csv-thread-pool";
 
 const workerId = `${os.hostname()}:${process.pid}`;
 /**
@@ -57,6 +58,8 @@ async function untilDatabaseAnswers<T>(what: string, write: () => Promise<T>): P
 async function loop() {
   const sequelize = getSequelize();
   initModels(sequelize);
+  // The CSV reader threads load their code now, not in the first large job.
+  await sharedCsvThreadPool()?.warm();
   log("ready");
   let lastRecover = 0;
   while (!stopping) {

@@ -1,35 +1,20 @@
-import { FLOAT64_ROLES, sampleArrayFor, type SampleArray } from "@/lib/channels/roles";
+import { FLOAT64_ROLES } from "@/lib/channels/roles";
 import { Readable } from "node:stream";
 import Papa from "papaparse";
-import { readCsvHeader, type CsvHeader } from "./csv-header";
+import { readCsvPreamble } from "./csv-preamble";
+import { CsvRowReader, type RowReaderConfig } from "./csv-row-reader";
 import { decodeTextStream, type DecodeProgress } from "./decode-text-stream";
-import { ISO_8601_DATE_TIME } from "./detect-time-format";
 import { IngestError, quoteForMessage } from "./ingest-error";
 import { LIMITS, type IngestLimits } from "./limits";
-import type { Mapping, MappedColumn, TimeFormat } from "./mapping";
-import { describeBadCell, FLOAT32_MAX, parseNumberCell } from "./parse-number-cell";
+import type { Mapping } from "./mapping";
+import { mergeChunk, type CsvChunkRunner } from "./parse-csv-chunk";
 import type { IngestProgress, ParsedChannel, ParsedSeries } from "./parsed-series";
-import { normaliseName } from "./suggest-mapping";
-import { unitConversion } from "./units";
+import { SampleBlockStore, type SampleSink } from "./sample-block-store";
 
-/** Collect decoded text until the preamble (metadata, header, sample rows) is surely inside. */
-const PREAMBLE_LINES = 240;
-const PREAMBLE_MAX_CHARS = 4 * 1024 * 1024;
-/**
- * Rows per storage block. Samples go into fixed blocks, joined once at the end channel by channel,
- * instead of doubling arrays and trimming them, which held up to ~2× the output at once (parse of a
- * 200 MB log: 440 → 387 MiB peak RSS). Blocks of 256 kB and more are mmap'ed by malloc and go back
- * to the system once freed; with 64 kB blocks the peak stayed at 440 MiB.
- */
-const BLOCK_ROWS = 65_536;
-/**
- * Module-local bindings, read once: tsx (esbuild) compiles an imported name to a property getter,
- * and reading it per cell measured ~13% of the parse time in `node --cpu-prof`.
- */
-const parseNumber = parseNumberCell;
-const F32_MAX = FLOAT32_MAX;
-/** 10^k exact as a double for k ≤ 22. */
-const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+export type { SampleSink, SinkChannel } from "./sample-block-store";
+
+/** Characters of text per range read on a worker thread (about 2 MB of a logger export). */
+export const THREAD_CHUNK_CHARS = 2 * 1024 * 1024;
 
 export interface ParseCsvOptions {
   /** For messages; default "upload.csv". */
@@ -51,56 +36,23 @@ export interface ParseCsvOptions {
    * of exactly `rows` samples.
    */
   expectedBytes?: number;
-}
-
-/** A channel as the sink learns of it before the first row: same order as ParsedSeries.channels. */
-export interface SinkChannel {
-  name: string;
-  role: ParsedChannel["role"];
-  unit: string;
-  valueType: "f32" | "f64";
-}
-
-/** Where parseCsvStream sends complete blocks of rows as it goes. */
-export interface SampleSink {
   /**
-   * Rows per block (each block but the last is exactly this long): a sink that stores fixed-size
-   * chunks gives its chunk size, or a multiple of it.
+   * Worker threads to read ranges of rows on (see parse-csv-chunk.ts); without, every row is read
+   * on this thread. The result is the same either way.
    */
-  readonly blockRows: number;
-  /** Called once, after the header and mapping were checked and before any block. */
-  start(channels: SinkChannel[]): void;
-  /**
-   * Rows [startRow, startRow + rows) of the time and every channel (values in SinkChannel order),
-   * in SI units, NaN for no sample: views of exactly `rows` elements, valid during the call only
-   * (the parser refills the blocks of channels it does not keep), so a sink that writes later
-   * copies them first.
-   */
-  block(startRow: number, rows: number, timeS: Float64Array, values: readonly SampleArray[]): void;
-  /** Resolves when the sink can take more (the parser waits before reading on); rejects when it failed. */
-  ready(): Promise<void>;
-}
-
-interface ChannelPlan {
-  column: MappedColumn;
-  header: string;
-  role: ParsedChannel["role"];
-  unit: string;
-  /** si = raw × factor + offset (calibration and unit conversion folded together). */
-  factor: number;
-  offset: number;
+  threads?: CsvChunkRunner;
+  /** Characters per range for the threads; default THREAD_CHUNK_CHARS. */
+  chunkChars?: number;
 }
 
 /**
- * Parse a CSV channel export as a stream with papaparse (`chunk` mode), filling typed arrays
- * (Float64 time, Float32 per channel, NaN for empty cells) in SI units, validating every
- * cell as it goes. Throws IngestError naming the line and column on the first problem; returns
- * nothing partial. Memory: samples fill fixed blocks (BLOCK_ROWS), joined into one array per
- * channel at the end, freeing the blocks as it goes: the peak is the output plus the blocks the
- * collector has not freed yet, not the up-to-twice-the-output of doubling arrays. With a sink
- * (options.sink) every `sink.blockRows` rows go to the sink as soon as they are complete; the
- * channels the caller keeps (options.keep) fill one array each, sized from options.expectedBytes,
- * and the others refill one block each, so memory follows the kept channels only.
+ * Parse a CSV channel export as a stream: the preamble reader (csv-preamble.ts) reads the header
+ * and plans the mapped columns; papaparse splits the rows — on this thread (`chunk` mode) or, with
+ * options.threads, in ranges on worker threads (parse-csv-chunk.ts); the row reader
+ * (csv-row-reader.ts) checks every cell and converts it to SI units; the sample-block store
+ * (sample-block-store.ts) holds the samples (Float64 time, Float32 per channel, Float64 for
+ * latitude and longitude, NaN for empty cells) and feeds options.sink. Throws IngestError naming
+ * the line and column on the first problem; returns nothing partial.
  */
 export async function parseCsvStream(
   readable: NodeJS.ReadableStream | AsyncIterable<Buffer | string>,
@@ -123,43 +75,32 @@ export async function parseCsvStream(
   });
 
   // 1. Preamble.
-  let preamble = "";
-  let lfCount = 0;
-  let ended = false;
-  for (;;) {
-    const next = await decoded.next();
-    if (next.done) {
-      ended = true;
-      break;
-    }
-    preamble += next.value;
-    lfCount += countLf(next.value);
-    if (lfCount >= PREAMBLE_LINES || preamble.length >= PREAMBLE_MAX_CHARS) break;
-  }
-  if (ended && preamble.trim() === "") {
-    await decoded.return(undefined);
-    throw new IngestError("EMPTY_FILE", `"${fileName}" has no text${progress.bytesRead > 0 ? " (only blank lines or a byte-order mark)" : " (0 bytes)"}.`);
-  }
-  let header: CsvHeader;
-  try {
-    header = readCsvHeader(preamble, ended, limits);
-  } catch (e) {
-    await decoded.return(undefined);
-    throw e;
-  }
-  let plan: ReturnType<typeof planColumns>;
-  try {
-    plan = planColumns(header, mapping);
-  } catch (e) {
-    await decoded.return(undefined);
-    throw e;
-  }
-  const { timeColumn, channels, textColumns } = plan;
-  const rest = preamble.slice(header.dataStartOffset);
-  preamble = "";
+  const { header, plan, rest } = await readCsvPreamble(decoded, mapping, limits, fileName, () => progress.bytesRead);
+  const { channels, textColumns } = plan;
+  const timeIdx = plan.timeColumn.index;
+  const timeHeader = header.columns.find((c) => c.index === timeIdx)?.header ?? plan.timeColumn.name;
+  const timeFormat = mapping.timeFormat;
   const sink = options.sink;
   const keep = channels.map((c) => !sink || !options.keep || options.keep(c.role));
   sink?.start(channels.map((c) => ({ name: c.column.name, role: c.role, unit: c.unit, valueType: FLOAT64_ROLES.has(c.role) ? "f64" : "f32" })));
+
+  // 2. Rows.
+  const roles = channels.map((c) => c.role);
+  /** Share of the decoded text behind the stored rows (the rest is in flight on the threads). */
+  let storedShare = 1;
+  const store = new SampleBlockStore(roles, { sink, keep, expectedBytes: options.expectedBytes, bytesDone: () => progress.bytesRead * storedShare });
+  const cfg: RowReaderConfig = {
+    delimiter: header.delimiter,
+    fieldCount: header.fieldCount,
+    decimalComma: header.decimalComma,
+    timeIndex: timeIdx,
+    timeHeader,
+    timeFormat,
+    keepFirstOfDuplicates: mapping.duplicateTimes === "keepFirst",
+    maxRows: limits.maxRows,
+    channels: channels.map((c) => ({ index: c.column.index, header: c.header, factor: c.factor, offset: c.offset, isOther: c.role === "other" })),
+  };
+  const reader = new CsvRowReader(cfg, store, header.dataStartLine);
 
   async function* textForPapa(): AsyncGenerator<string> {
     if (rest) yield rest;
@@ -173,220 +114,59 @@ export async function parseCsvStream(
     }
   }
 
-  // 2. Rows.
-  const nch = channels.length;
-  const colIdx = channels.map((c) => c.column.index);
-  const factor = channels.map((c) => c.factor);
-  const offset = channels.map((c) => c.offset);
-  const timeIdx = timeColumn.index;
-  const timeHeader = header.columns.find((c) => c.index === timeIdx)?.header ?? timeColumn.name;
-  const timeFormat: TimeFormat = mapping.timeFormat;
-  /** readTime returns seconds, or milliseconds for "milliseconds" and "iso8601". */
-  const timeDivisor = timeFormat === "seconds" ? 1 : 1000;
-  const fieldCount = header.fieldCount;
-  const decimalComma = header.decimalComma;
-  const sinkRows = sink ? sink.blockRows : 0;
-  if (sink && !(Number.isInteger(sinkRows) && sinkRows > 0)) throw new Error(`sink.blockRows must be a positive integer, got ${sinkRows}`);
-  // Storage blocks hold whole sink blocks, so each sink block is a view of one storage block.
-  const blockRows = sink ? Math.ceil(BLOCK_ROWS / sinkRows) * sinkRows : BLOCK_ROWS;
-  /** Rows in the current storage block when full (always blockRows without a sink). */
-  let curRows = blockRows;
-  /** Rows of the current storage block already handed to the sink. */
-  let sent = 0;
-  // Without a sink: full blocks so far, joined at the end.
-  const timeBlocks: Float64Array[] = [];
-  const valueBlocks: SampleArray[][] = channels.map(() => []);
-  // With a sink: time and the kept channels live in one array each, sized from the file's size
-  // (options.expectedBytes) once the first block shows the bytes per row, and the block being
-  // filled is a view of it — no join at the end, whose blocks-plus-result held twice the kept
-  // samples (200 MB log: ~140 MB of arrays instead of ~70). Other channels refill one block each,
-  // so they allocate nothing after the first block.
-  let keptTime: Float64Array | null = sink ? new Float64Array(blockRows) : null;
-  const keptValues: (SampleArray | null)[] = channels.map((c, k) => (sink && keep[k] ? sampleArrayFor(c.role, blockRows) : null));
-  // The block being filled (`pos` rows in it).
-  let timeS = keptTime ?? new Float64Array(blockRows);
-  let values: SampleArray[] = channels.map((c, k) => keptValues[k] ?? sampleArrayFor(c.role, blockRows));
-  let pos = 0;
-  const counts = new Array<number>(nch).fill(0);
-  const mins = new Array<number>(nch).fill(Infinity);
-  const maxs = new Array<number>(nch).fill(-Infinity);
-  let rows = 0;
-  let line = header.dataStartLine;
-  let t0 = NaN;
-  let prevRaw = NaN;
-  let prevCell = "";
-  let prevLine = 0;
-  let firstTimeCell = "";
-  let pendingShort: { line: number; found: number } | undefined;
-  let missingMarkers = 0;
-  const keepFirstOfDuplicates = mapping.duplicateTimes === "keepFirst";
-  let duplicateRows = 0;
-  let firstDuplicate: { line: number; prevLine: number; cell: string } | undefined;
-  const isOther = channels.map((c) => c.role === "other");
-  const textCells = new Array<number>(channels.length).fill(0);
-  const textExample = new Array<string>(channels.length).fill("");
-
-  /** Hand rows [sent, pos) of the current storage block to the sink. */
-  function send(): void {
-    const from = sent;
-    const to = pos;
-    sent = pos;
-    sink!.block(rows - (pos - from), to - from, timeS.subarray(from, to), values.map((v) => v.subarray(from, to)));
+  let text: AsyncIterable<string> | null = textForPapa();
+  if (options.threads && options.threads.threads > 0) {
+    const share = { decoded: 0, stored: 0 };
+    text = await readOnThreads(text, reader, store, cfg, roles, options.threads, options.chunkChars ?? THREAD_CHUNK_CHARS, share, () => {
+      storedShare = share.decoded > 0 ? share.stored / share.decoded : 1;
+      onProgress?.({ bytesRead: progress.bytesRead, rows: store.rows });
+    });
+    storedShare = 1;
   }
+  if (text) await readOnThisThread(text, reader, header.delimiter, () => onProgress?.({ bytesRead: progress.bytesRead, rows: store.rows }));
 
-  function nextBlock(): void {
-    sent = 0;
-    pos = 0;
-    if (!keptTime) {
-      timeBlocks.push(timeS);
-      timeS = new Float64Array(blockRows);
-      for (let k = 0; k < nch; k++) valueBlocks[k].push(values[k]);
-      values = channels.map((c) => sampleArrayFor(c.role, blockRows));
-      return;
-    }
-    // `rows` is where the new block starts.
-    if (keptTime.length < rows + sinkRows) growKept();
-    curRows = Math.min(blockRows, keptTime.length - rows);
-    timeS = keptTime.subarray(rows, rows + curRows);
-    // Channels not kept refill the same block: the sink copied what it was handed.
-    values = values.map((v, k) => keptValues[k]?.subarray(rows, rows + curRows) ?? v);
+  reader.finishChecks(header.headerLine);
+  const rows = store.rows;
+  const joined = await store.finish();
+  const out: ParsedChannel[] = channels.map((c, k) => ({
+    name: c.column.name,
+    role: c.role,
+    unit: c.unit,
+    values: joined.values[k],
+    sampleCount: reader.counts[k],
+    min: reader.counts[k] > 0 ? reader.mins[k] : NaN,
+    max: reader.counts[k] > 0 ? reader.maxs[k] : NaN,
+  }));
+  const joinedTime = joined.timeS;
+  const firstTimeCell = reader.firstTimeCell;
+  const metadata: Record<string, string> = { ...header.metadata, source_format: "csv", time_format: timeFormat, first_time_value: firstTimeCell };
+  if (timeFormat === "iso8601") {
+    metadata.start_time_iso = new Date(reader.t0).toISOString();
+    // A zone-less date-time is wall-clock time: the track's zone decides the instant at ingest.
+    if (!/(Z|[+-]\d{2}:?\d{2})$/.test(firstTimeCell)) metadata.time_zone_in_file = "no";
   }
-
-  /** Room for the rest of the file: rows so far scaled by the bytes still to come, +5% for longer lines later on. */
-  function growKept(): void {
-    const expectedBytes = options.expectedBytes ?? 0;
-    const estimate = expectedBytes > progress.bytesRead && progress.bytesRead > 0 ? Math.ceil(((rows * expectedBytes) / progress.bytesRead) * 1.05) : 2 * rows;
-    const cap = Math.ceil(Math.max(rows + blockRows, estimate) / sinkRows) * sinkRows;
-    const t = new Float64Array(cap);
-    t.set(keptTime!.subarray(0, rows));
-    keptTime = t;
-    for (let k = 0; k < nch; k++) {
-      const old = keptValues[k];
-      if (!old) continue;
-      const a = sampleArrayFor(channels[k].role, cap);
-      a.set(old.subarray(0, rows));
-      keptValues[k] = a;
-    }
+  const notes: string[] = [];
+  if (textColumns.length) {
+    notes.push(`${textColumns.length === 1 ? "1 column holds" : `${textColumns.length} columns hold`} text, not numbers, and ${textColumns.length === 1 ? "was" : "were"} left out: ${textColumns.map((c) => `${quoteForMessage(c.name)} (e.g. ${quoteForMessage(c.example)})`).join(", ")}.`);
   }
-
-  function fieldCountError(at: { line: number; found: number }, last: boolean): IngestError {
-    if (last && at.found < fieldCount) {
-      return new IngestError("TRUNCATED_LINE", `Line ${at.line} (the last line) has ${at.found} of ${fieldCount} fields: the file looks cut off. Upload the complete file.`, { line: at.line });
-    }
-    return new IngestError("FIELD_COUNT", `Line ${at.line} has ${at.found} fields; the header has ${fieldCount}. Every line needs one field per column (empty for no sample).`, { line: at.line });
+  for (let k = 0; k < channels.length; k++) {
+    if (reader.textCells[k]) notes.push(`Column ${quoteForMessage(channels[k].header)} (other): ${reader.textCells[k].toLocaleString("en-GB")} cells of text (e.g. ${quoteForMessage(reader.textExample[k])}) left out.`);
   }
-
-  function readTime(cell: string, lineNo: number): number {
-    // Plain decimals (nearly every time cell of a logger) take the exact fast path below.
-    if (timeFormat !== "iso8601") {
-      const fast = plainDecimal(cell);
-      if (fast === fast) return fast;
-    }
-    if (cell.trim() === "") {
-      throw new IngestError("BAD_TIME", `Line ${lineNo}, column ${quoteForMessage(timeHeader)}: the time is empty; every line needs a time.`, { line: lineNo, column: timeHeader });
-    }
-    if (timeFormat === "iso8601") {
-      const ms = parseIsoMs(cell.trim());
-      if (ms === undefined) {
-        throw new IngestError("BAD_TIME", `Line ${lineNo}, column ${quoteForMessage(timeHeader)}: expected an ISO 8601 date and time (e.g. 2024-05-01T10:00:00.125Z), found ${quoteForMessage(cell)}.`, {
-          line: lineNo,
-          column: timeHeader,
-        });
-      }
-      return ms;
-    }
-    const v = parseNumber(cell, decimalComma);
-    if (v === undefined || v !== v) {
-      const err = describeBadCell(cell, lineNo, timeHeader, decimalComma);
-      throw new IngestError(err.code === "NOT_A_NUMBER" ? "BAD_TIME" : err.code, err.message.replace("expected a number", `expected a time in ${timeFormat}`), { line: lineNo, column: timeHeader });
-    }
-    return v;
+  const { duplicateRows, missingMarkers } = reader;
+  if (duplicateRows) notes.push(`${duplicateRows.toLocaleString("en-GB")} rows repeating the time stamp of the row before were dropped (the first row of each time stamp kept).`);
+  if (missingMarkers) notes.push(`${missingMarkers.toLocaleString("en-GB")} cells written NA were read as empty (no sample).`);
+  const runs = separateRuns(joinedTime);
+  if (runs.count > 1) {
+    notes.push(`The file holds ${runs.count} separate runs: the time jumps ${runs.count - 1} times by more than ${formatGap(runs.gapS)} (longest gap ${formatGap(runs.longestGapS)}). Upload each run as its own file to get a session per run.`);
+    metadata.separate_runs = String(runs.count);
   }
+  onProgress?.({ bytesRead: progress.bytesRead, rows });
+  return { timeS: joinedTime, channels: out, metadata, rows, ...(notes.length ? { notes } : {}) };
+}
 
-  function processRows(data: string[][]): void {
-    for (let r = 0; r < data.length; r++, line++) {
-      const row = data[r];
-      if (row.length === 1 && row[0].trim() === "") continue;
-      if (pendingShort) throw fieldCountError(pendingShort, false);
-      if (row.length !== fieldCount) {
-        if (row.length > fieldCount) throw fieldCountError({ line, found: row.length }, false);
-        pendingShort = { line, found: row.length };
-        continue;
-      }
-      if (rows >= limits.maxRows) {
-        throw new IngestError("TOO_MANY_ROWS", `Line ${line}: more than ${limits.maxRows.toLocaleString("en-GB")} rows of samples; split the log into shorter files.`, { line });
-      }
-      const tCell = row[timeIdx];
-      const t = readTime(tCell, line);
-      if (rows === 0) {
-        t0 = t;
-        firstTimeCell = tCell.trim();
-      } else if (!(t > prevRaw)) {
-        if (t === prevRaw) {
-          // Refused or not, every repeat is counted (the refusal says how many rows keeping the
-          // first of each stamp would drop); the first one is named in the refusal.
-          duplicateRows++;
-          if (!keepFirstOfDuplicates && !firstDuplicate) firstDuplicate = { line, prevLine, cell: tCell.trim() };
-          continue;
-        }
-        throw new IngestError(
-          "TIME_BACKWARDS",
-          `Line ${line}, column ${quoteForMessage(timeHeader)}: time goes backwards, ${quoteForMessage(tCell.trim())} after ${quoteForMessage(prevCell.trim())} on line ${prevLine}; times must increase.`,
-          { line, column: timeHeader },
-        );
-      }
-      prevRaw = t;
-      prevCell = tCell; // trimmed only for a message
-      prevLine = line;
-      if (pos === curRows) nextBlock();
-      // Subtract in the file's own unit first: epoch milliseconds keep sub-ms steps exact enough.
-      timeS[pos] = (t - t0) / timeDivisor;
-      for (let k = 0; k < nch; k++) {
-        const cell = row[colIdx[k]];
-        if (cell.length === 0) {
-          values[k][pos] = NaN; // no sample, as parseNumberCell says for an empty cell
-          continue;
-        }
-        let raw: number | undefined = plainDecimal(cell);
-        if (raw !== raw) raw = parseNumber(cell, decimalComma);
-        if (raw === undefined) {
-          // R and many statistics tools write NA for a missing value: no sample, like an empty cell.
-          if (cell === "NA" || cell === "\"NA\"") {
-            values[k][pos] = NaN;
-            missingMarkers++;
-            continue;
-          }
-          if (isOther[k]) {
-            // Text later on in a column left as "other": that cell is left out and counted.
-            values[k][pos] = NaN;
-            if (textCells[k]++ === 0) textExample[k] = cell;
-            continue;
-          }
-          throw describeBadCell(cell, line, channels[k].header, decimalComma);
-        }
-        if (raw !== raw) {
-          values[k][pos] = NaN;
-          continue;
-        }
-        const si = raw * factor[k] + offset[k];
-        if (si > F32_MAX || si < -F32_MAX) {
-          throw new IngestError("NUMBER_OUT_OF_RANGE", `Line ${line}, column ${quoteForMessage(channels[k].header)}: ${quoteForMessage(cell)} is out of range for a stored sample.`, {
-            line,
-            column: channels[k].header,
-          });
-        }
-        values[k][pos] = si;
-        counts[k]++;
-        if (si < mins[k]) mins[k] = si;
-        if (si > maxs[k]) maxs[k] = si;
-      }
-      pos++;
-      rows++;
-      if (sinkRows && pos - sent === sinkRows) send();
-    }
-  }
-
-  const source = Readable.from(textForPapa());
+/** Feed text to papaparse (`chunk` mode) on this thread, every chunk of rows to the row reader. */
+async function readOnThisThread(text: AsyncIterable<string>, reader: CsvRowReader, delimiter: string, progressed: () => void): Promise<void> {
+  const source = Readable.from(text);
   await new Promise<void>((resolve, reject) => {
     let failure: unknown;
     let settled = false;
@@ -402,7 +182,7 @@ export async function parseCsvStream(
       finish();
     };
     Papa.parse<string[], NodeJS.ReadableStream>(source, {
-      delimiter: header.delimiter,
+      delimiter,
       newline: "\n",
       quoteChar: '"',
       header: false,
@@ -410,13 +190,8 @@ export async function parseCsvStream(
       chunk: (results, parser) => {
         if (failure !== undefined) return;
         try {
-          const quoteError = results.errors.find((e) => e.type === "Quotes");
-          if (quoteError) {
-            const at = line + (quoteError.row ?? 0);
-            throw new IngestError("UNCLOSED_QUOTE", `Line ${at}: a quoted field is not closed properly (${quoteError.message}).`, { line: at });
-          }
-          processRows(results.data);
-          onProgress?.({ bytesRead: progress.bytesRead, rows });
+          reader.processResult(results);
+          progressed();
         } catch (e) {
           // Record the failure first: abort() calls `complete` synchronously.
           failure = e;
@@ -428,191 +203,99 @@ export async function parseCsvStream(
       error: (e: Error) => fail(e),
     });
   });
-
-  if (pendingShort) throw fieldCountError(pendingShort, true);
-  if (rows === 0) {
-    throw new IngestError("HEADER_ONLY", `The file has a header (line ${header.headerLine}) but no data lines.`, { line: header.headerLine });
-  }
-
-  if (firstDuplicate) {
-    const d = firstDuplicate;
-    throw new IngestError(
-      "DUPLICATE_TIME",
-      `Line ${d.line}, column ${quoteForMessage(timeHeader)}: the time ${quoteForMessage(d.cell)} repeats the one on line ${d.prevLine}; time stamps must be unique. ` +
-        `${duplicateRows.toLocaleString("en-GB")} ${duplicateRows === 1 ? "row repeats" : "rows repeat"} the time stamp of the row before. ` +
-        "If the export rounded the times, import it keeping the first row of each time stamp.",
-      { line: d.line, column: timeHeader, duplicateRows },
-    );
-  }
-  const out: ParsedChannel[] = [];
-  const stats = (k: number) => ({ sampleCount: counts[k], min: counts[k] > 0 ? mins[k] : NaN, max: counts[k] > 0 ? maxs[k] : NaN });
-  let joinedTime: Float64Array;
-  if (keptTime) {
-    if (pos > sent) send();
-    joinedTime = keptTime.subarray(0, rows);
-    for (let k = 0; k < nch; k++) {
-      const c = channels[k];
-      out.push({ name: c.column.name, role: c.role, unit: c.unit, values: keptValues[k]?.subarray(0, rows) ?? sampleArrayFor(c.role, 0), ...stats(k) });
-    }
-  } else {
-    // 3. Join the blocks, one channel at a time, dropping each channel's blocks once copied. The
-    // yield between channels lets V8's collector run its tasks and free the dropped blocks; joined
-    // synchronously, they outlived the join (200 MB log: 414 MiB peak without the yield, 387 with).
-    const yieldToLoop = () => new Promise<void>((r) => setImmediate(r));
-    timeBlocks.push(timeS.subarray(0, pos));
-    joinedTime = joinBlocks(timeBlocks, new Float64Array(rows));
-    timeBlocks.length = 0;
-    for (let k = 0; k < nch; k++) {
-      const c = channels[k];
-      valueBlocks[k].push(values[k].subarray(0, pos));
-      const joined = joinBlocks(valueBlocks[k], sampleArrayFor(c.role, rows));
-      valueBlocks[k] = [];
-      values[k] = joined; // the current block is no longer referenced either
-      out.push({ name: c.column.name, role: c.role, unit: c.unit, values: joined, ...stats(k) });
-      await yieldToLoop();
-    }
-  }
-  values = [];
-  const metadata: Record<string, string> = { ...header.metadata, source_format: "csv", time_format: timeFormat, first_time_value: firstTimeCell };
-  if (timeFormat === "iso8601") {
-    metadata.start_time_iso = new Date(t0).toISOString();
-    // A zone-less date-time is wall-clock time: the track's zone decides the instant at ingest.
-    if (!/(Z|[+-]\d{2}:?\d{2})$/.test(firstTimeCell)) metadata.time_zone_in_file = "no";
-  }
-  const notes: string[] = [];
-  if (textColumns.length) {
-    notes.push(`${textColumns.length === 1 ? "1 column holds" : `${textColumns.length} columns hold`} text, not numbers, and ${textColumns.length === 1 ? "was" : "were"} left out: ${textColumns.map((c) => `${quoteForMessage(c.name)} (e.g. ${quoteForMessage(c.example)})`).join(", ")}.`);
-  }
-  for (let k = 0; k < nch; k++) {
-    if (textCells[k]) notes.push(`Column ${quoteForMessage(channels[k].header)} (other): ${textCells[k].toLocaleString("en-GB")} cells of text (e.g. ${quoteForMessage(textExample[k])}) left out.`);
-  }
-  if (duplicateRows) notes.push(`${duplicateRows.toLocaleString("en-GB")} rows repeating the time stamp of the row before were dropped (the first row of each time stamp kept).`);
-  if (missingMarkers) notes.push(`${missingMarkers.toLocaleString("en-GB")} cells written NA were read as empty (no sample).`);
-  const runs = separateRuns(joinedTime);
-  if (runs.count > 1) {
-    notes.push(`The file holds ${runs.count} separate runs: the time jumps ${runs.count - 1} times by more than ${formatGap(runs.gapS)} (longest gap ${formatGap(runs.longestGapS)}). Upload each run as its own file to get a session per run.`);
-    metadata.separate_runs = String(runs.count);
-  }
-  onProgress?.({ bytesRead: progress.bytesRead, rows });
-  return { timeS: joinedTime, channels: out, metadata, rows, ...(notes.length ? { notes } : {}) };
-}
-
-function joinBlocks<T extends SampleArray>(blocks: SampleArray[], into: T): T {
-  let at = 0;
-  for (const b of blocks) {
-    into.set(b, at);
-    at += b.length;
-  }
-  return into;
 }
 
 /**
- * The value of a plain decimal cell (-?digits[.digits], at most 15 digits), or NaN for anything
- * else, which then goes through parseNumberCell. With at most 15 digits the integer mantissa and
- * 10^k are exact doubles, so one correctly rounded division gives exactly what Number() gives
- * (Clinger's fast path, "How to read floating point numbers accurately", PLDI 1990) — and it
- * measured ~1.4× faster than Number() on logger cells.
+ * Send ranges of whole rows to the threads and merge their results in order. Returns the text
+ * still to read on this thread — from the line of the first quote character on (a quoted cell may
+ * hold a line feed, so ranges could not be cut there) — or null when everything was read.
  */
-function plainDecimal(s: string): number {
-  const n = s.length;
-  let i = 0;
-  let neg = false;
-  if (s.charCodeAt(0) === 45) {
-    neg = true;
-    i = 1;
-  }
-  let mantissa = 0;
-  let digits = 0;
-  let point = -1;
-  for (; i < n; i++) {
-    const c = s.charCodeAt(i);
-    if (c >= 48 && c <= 57) {
-      mantissa = mantissa * 10 + (c - 48);
-      digits++;
-    } else if (c === 46 && point < 0) {
-      point = i;
-    } else {
-      return NaN;
-    }
-  }
-  if (digits === 0 || digits > 15) return NaN;
-  const v = point < 0 ? mantissa : mantissa / POW10[n - 1 - point];
-  return neg ? -v : v;
-}
+async function readOnThreads(
+  text: AsyncIterable<string>,
+  reader: CsvRowReader,
+  store: SampleBlockStore,
+  cfg: RowReaderConfig,
+  roles: ParsedChannel["role"][],
+  threads: CsvChunkRunner,
+  chunkChars: number,
+  share: { decoded: number; stored: number },
+  progressed: () => void,
+): Promise<AsyncIterable<string> | null> {
+  const it = text[Symbol.asyncIterator]();
+  const inFlight: { text: string; result: Promise<Awaited<ReturnType<CsvChunkRunner["run"]>>> }[] = [];
+  const maxInFlight = threads.threads * 2;
+  let pending = "";
 
-/** Check the mapping against this file's header and work out each column's conversion to SI. */
-function planColumns(header: CsvHeader, mapping: Mapping): { timeColumn: MappedColumn; channels: ChannelPlan[]; textColumns: { name: string; example: string }[] } {
-  const byIndex = new Map(header.columns.map((c) => [c.index, c]));
-  for (const m of mapping.columns) {
-    const col = byIndex.get(m.index);
-    if (!col || normaliseName(col.name) !== normaliseName(m.name)) {
-      const found = col ? `is ${quoteForMessage(col.name)}` : "does not exist";
-      throw new IngestError(
-        "MAPPING_MISMATCH",
-        `The column mapping does not fit this file: column ${m.index + 1} ${found} here but ${quoteForMessage(m.name)} in the mapping. Map the columns of this file again.`,
-        { column: m.name },
-      );
+  const dispatch = (chunk: string) => {
+    if (store.rows === 0) {
+      // Until a row is stored (and with it the file's first time), ranges are read here.
+      reader.processText(chunk);
+      share.stored += chunk.length + 1;
+      return;
     }
-  }
-  const times = mapping.columns.filter((c) => c.role === "time");
-  if (times.length === 0) {
-    throw new IngestError("NO_TIME_COLUMN", `No column is mapped to time; Lapbench needs a time column (seconds, milliseconds or ISO 8601). Columns: ${header.columns.map((c) => quoteForMessage(c.header)).join(", ")}.`);
-  }
-  if (times.length > 1) {
-    throw new IngestError("MAPPING_MISMATCH", `More than one column is mapped to time: ${times.map((c) => quoteForMessage(c.name)).join(", ")}; choose one.`);
-  }
-  const seenRoles = new Map<string, string>();
-  const channels: ChannelPlan[] = [];
-  const textColumns: { name: string; example: string }[] = [];
-  for (const m of mapping.columns) {
-    if (m.role === "time" || m.role === "ignore") continue;
-    if (m.role === "other") {
-      // A column left as "other" whose first rows hold text (a source name, a local date-time)
-      // is not a channel: it is left out, with a note, instead of refusing the file.
-      const text = header.sampleRows.map((r) => (r[m.index] ?? "").trim()).find((c) => c !== "" && c !== "NA" && parseNumberCell(c, header.decimalComma) === undefined);
-      if (text !== undefined) {
-        textColumns.push({ name: m.name, example: text });
-        continue;
+    const result = threads.run({ cfg, roles, text: chunk, t0: reader.t0 });
+    // Settled here too, so a refusal of an earlier range leaves no unhandled rejection behind.
+    result.catch(() => undefined);
+    inFlight.push({ text: chunk, result });
+  };
+  const mergeOldest = async () => {
+    const c = inFlight.shift()!;
+    mergeChunk(reader, store, cfg, await c.result, c.text);
+    share.stored += c.text.length + 1;
+    progressed();
+  };
+  const drain = async () => {
+    while (inFlight.length) await mergeOldest();
+  };
+
+  try {
+    for (;;) {
+      let next: IteratorResult<string>;
+      try {
+        next = await it.next();
+      } catch (e) {
+        // What comes before the unreadable bytes is read first, as on one thread: a refusal there comes first.
+        await drain();
+        const cut = pending.lastIndexOf("\n");
+        if (cut > 0) reader.processText(pending.slice(0, cut));
+        throw e;
       }
-    }
-    if (m.role !== "other") {
-      const before = seenRoles.get(m.role);
-      if (before !== undefined) {
-        throw new IngestError("MAPPING_MISMATCH", `Columns ${quoteForMessage(before)} and ${quoteForMessage(m.name)} are both mapped to ${m.role.replace(/_/g, " ")}; a role can be used once.`);
+      if (next.done) break;
+      const piece = next.value;
+      share.decoded += piece.length;
+      const q = piece.indexOf('"');
+      if (q >= 0) {
+        const all = pending + piece;
+        const cut = all.lastIndexOf("\n", pending.length + q);
+        if (cut > 0) dispatch(all.slice(0, cut));
+        await drain();
+        const tail = cut >= 0 ? all.slice(cut + 1) : all;
+        return (async function* () {
+          yield tail;
+          for (;;) {
+            const n = await it.next();
+            if (n.done) return;
+            yield n.value;
+          }
+        })();
       }
-      seenRoles.set(m.role, m.name);
+      pending += piece;
+      if (pending.length >= chunkChars) {
+        const cut = pending.lastIndexOf("\n");
+        if (cut > 0) {
+          dispatch(pending.slice(0, cut));
+          pending = pending.slice(cut + 1);
+        }
+      }
+      while (inFlight.length >= maxInFlight) await mergeOldest();
     }
-    const col = byIndex.get(m.index)!;
-    const conv = unitConversion(m.role, m.unit, col.header);
-    const scale = Number.isFinite(m.scale) ? m.scale : 1;
-    const off = Number.isFinite(m.offset) ? m.offset : 0;
-    channels.push({ column: m, header: col.header, role: m.role, unit: conv.siUnit, factor: scale * conv.factor, offset: off * conv.factor + conv.offset });
+    if (pending) dispatch(pending);
+    await drain();
+    return null;
+  } catch (e) {
+    await it.return?.(undefined);
+    throw e;
   }
-  if (channels.length === 0) {
-    throw new IngestError("ONLY_TIME_COLUMN", `The file has only a time column (${quoteForMessage(times[0].name)}) and no data channels to import.`);
-  }
-  return { timeColumn: times[0], channels, textColumns };
-}
-
-/** Milliseconds since the epoch of an ISO 8601 date-time (no zone = UTC), keeping sub-ms digits. */
-function parseIsoMs(text: string): number | undefined {
-  if (!ISO_8601_DATE_TIME.test(text)) return undefined;
-  let s = text.replace(" ", "T");
-  let fraction = 0;
-  const frac = /\.(\d+)/.exec(s);
-  if (frac) {
-    fraction = Number("0." + frac[1]) * 1000;
-    s = s.replace(frac[0], "");
-  }
-  if (!/(Z|[+-]\d{2}:?\d{2})$/.test(s)) s += "Z";
-  const ms = Date.parse(s);
-  return Number.isNaN(ms) ? undefined : ms + fraction;
-}
-
-function countLf(s: string): number {
-  let n = 0;
-  for (let i = s.indexOf("\n"); i >= 0; i = s.indexOf("\n", i + 1)) n++;
-  return n;
 }
 
 /**

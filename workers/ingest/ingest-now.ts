@@ -5,14 +5,14 @@
  */
 import type { Sequelize } from "sequelize";
 import { claimJob, finishJob, failJob } from "../../lib/data/jobs";
-import { runIngestJob } from "./run-ingest-job";
+import { runIngestJob, type IngestJobOptions } from "./run-ingest-job";
 
-export async function ingestNow(sequelize: Sequelize, sessionId: number, by = "in-process"): Promise<"ready" | "failed" | "no-job"> {
+export async function ingestNow(sequelize: Sequelize, sessionId: number, by = "in-process", opts: IngestJobOptions = {}): Promise<"ready" | "failed" | "no-job"> {
   const job = await claimJob(sequelize, by, { sessionId });
   if (!job) return "no-job";
   const jobId = job.id;
   try {
-    const outcome = await runIngestJob(sequelize, sessionId);
+    const outcome = await runIngestJob(sequelize, sessionId, opts);
     if (outcome === "ready") await finishJob(sequelize, jobId);
     else await failJob(sequelize, jobId, "bad input (see the session's reason)");
     return outcome;

@@ -9,6 +9,8 @@ import type { ReadableStream as WebReadableStream } from "node:stream/web";
 import type { Sequelize, Transaction } from "sequelize";
 import { initModels, LogFile, RideSession, Track } from "../../models";
 import { parseCsvStream } from "../../lib/ingest/parse-csv-stream";
+import type { CsvChunkRunner } from "../../lib/ingest/parse-csv-chunk";
+import { sharedCsvThreadPool, THREADS_MIN_BYTES } from "./csv-thread-pool";
 import { parseGpx } from "../../lib/ingest/parse-gpx";
 import { GPX_MAX_BYTES } from "../../lib/ingest/limits";
 import { parseNmea } from "../../lib/ingest/parse-nmea";
@@ -45,6 +47,11 @@ export interface IngestJobOptions {
   afterParse?: () => Promise<void>;
   /** Filled in with the stage times. */
   timings?: IngestTimings;
+  /**
+   * Where a CSV's rows are read: on worker threads (the process's pool from THREADS_MIN_BYTES on,
+   * by default), or `false` for the job's own thread. Same results either way.
+   */
+  csvThreads?: { runner: CsvChunkRunner; chunkChars?: number } | false;
 }
 
 /**
@@ -155,7 +162,15 @@ export async function runIngestJob(sequelize: Sequelize, sessionId: number, opts
         const writer = openSampleWriter(sequelize, t, sessionId);
         let parsed: ParsedSeries;
         try {
-          parsed = await parseCsvStream(stream, mapping, limits, onProgress, { fileName: log.name, sink: writer, keep: (role) => ANALYSED_ROLES.has(role), expectedBytes: Number(log.bytes) });
+          const pool = opts.csvThreads === undefined && Number(log.bytes) >= THREADS_MIN_BYTES ? sharedCsvThreadPool() : null;
+          const threads = opts.csvThreads ?? (pool ? { runner: pool } : false);
+          parsed = await parseCsvStream(stream, mapping, limits, onProgress, {
+            fileName: log.name,
+            sink: writer,
+            keep: (role) => ANALYSED_ROLES.has(role),
+            expectedBytes: Number(log.bytes),
+            ...(threads ? { threads: threads.runner, chunkChars: threads.chunkChars } : {}),
+          });
           timings.parseWriteMs = performance.now() - t0;
           t0 = performance.now();
           // Before finish(): it share-locks the session row, which an update from outside would wait on.

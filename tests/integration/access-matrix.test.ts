@@ -351,6 +351,20 @@ const ROWS: Row[] = [
     call: async (x) => act("imports.ts", "saveSessionDetailsAction", x, await sessionFor(x), { title: uniq("Details"), kind: "practice", eventId: "", bikeId: "", engineId: "", riderId: "", startedAt: "", conditions: "", sharedWithRiders: false }),
   },
   {
+    key: "imports.ts keepFirstOfRepeatedTimesAction",
+    // A CSV refused for repeated time stamps; keeping the first row of each stamp queues it to be read again.
+    allow: EDITORS,
+    call: async (x) => {
+      const s = await newSession({
+        status: "failed",
+        riderId: x === "rider-own" ? riderOwn : riderOther,
+        summary: { failure: { code: "DUPLICATE_TIME", message: "Repeated time stamps" } },
+        mapping: { timeFormat: "seconds", columns: [{ index: 0, role: "time", unit: "s", scale: 1, offset: 0 }, { index: 1, role: "speed_front", unit: "km/h", scale: 1, offset: 0 }] },
+      });
+      return act("imports.ts", "keepFirstOfRepeatedTimesAction", x, {}, form({ sessionId: s.id }));
+    },
+  },
+  {
     key: "imports.ts reimportAction",
     allow: EDITORS, // queued again; the worker then reports the missing file on the session
     call: async (x) => act("imports.ts", "reimportAction", x, {}, form({ sessionId: await sessionFor(x) })),

@@ -378,7 +378,7 @@ export function ChartPane(props: ChartPaneProps) {
   // Which y scale sits on which side (and which grows downwards), for people's tools and tests.
   const axesText = (props.axes ?? [{ scale: "y", side: 3 }]).map((a) => `${a.scale}:${a.side === 3 ? "left" : "right"}${props.scales?.[a.scale]?.dir === -1 ? ":down" : ""}`).join(" ");
   return (
-    <figure className="min-w-0" data-testid={props.testId} data-axes={axesText} data-series-scales={props.series.map((s) => s.scale ?? "y").join(" ")}>
+    <figure className="min-w-0" data-testid={props.testId} data-points={props.data[0].length} data-axes={axesText} data-series-scales={props.series.map((s) => s.scale ?? "y").join(" ")}>
       <figcaption className="flex flex-wrap items-center gap-x-2 gap-y-1 px-1 text-xs">
         <span className="font-semibold text-ink-100">{props.title}</span>
         {props.unit && <span className="text-ink-400">[{props.unit}]</span>}

@@ -12,6 +12,7 @@ import uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
 import { GAIN_COLOUR, LOSS_COLOUR } from "./lap-colours";
 import { interpolateAt, nearestIndex } from "./series-lookup";
+import { cornerLabels } from "@/lib/compare/corner-labels";
 
 export interface PaneSeries {
   label: string;
@@ -85,6 +86,15 @@ export interface ChartPaneProps {
 
 const AXIS = { stroke: "#a3adb9", grid: { stroke: "#2a323c", width: 1 }, ticks: { stroke: "#2a323c", width: 1 }, font: "11px ui-monospace, SFMono-Regular, Menlo, monospace" }; // canvas fonts cannot read CSS variables
 const BAND_PX = 12;
+
+let measureCtx: CanvasRenderingContext2D | null = null;
+/** Width in CSS px of an x-axis label in the axis font. */
+function measureAxisText(text: string): number {
+  measureCtx ??= document.createElement("canvas").getContext("2d");
+  if (!measureCtx) return text.length * 7;
+  measureCtx.font = AXIS.font;
+  return measureCtx.measureText(text).width;
+}
 const X_AXIS_PX = 26;
 
 /** Gain/loss per pixel column of each compared lap, drawn under the x axis. Returns [gained, lost] columns. */
@@ -153,15 +163,14 @@ export function ChartPane(props: ChartPaneProps) {
    */
   const ownRange = useRef<[number, number] | null>(null);
   const seriesKey = useRef("");
+  const observer = useRef<ResizeObserver | null>(null);
 
   useEffect(() => {
     latest.current = props;
   });
 
-  // Create once; destroy on unmount.
-  useEffect(() => {
-    const node = host.current!;
-    const p = latest.current;
+  /** uPlot's options with the given traces: built once, when the first data arrives. */
+  const buildOptions = (node: HTMLDivElement, p: ChartPaneProps): uPlot.Options => {
     const scales: uPlot.Scales = { x: { time: false } };
     for (const [k, s] of Object.entries(p.scales ?? {})) scales[k] = { auto: s.range == null, ...(s.range ? { range: s.range } : {}), ...(s.dir ? { dir: s.dir } : {}) };
     const yAxes: uPlot.Axis[] = (p.axes ?? [{ scale: "y", side: 3 }]).map((a) => ({
@@ -179,12 +188,12 @@ export function ChartPane(props: ChartPaneProps) {
     // Every pane keeps a right-hand gutter of the same width, so the plotting areas — and the
     // corners on their x axes — line up from pane to pane.
     if (!yAxes.some((a) => a.side === 1)) yAxes.push({ ...AXIS, scale: yAxes[0]?.scale ?? "y", side: 1, size: 52, label: " ", labelSize: 14, grid: { show: false }, ticks: { show: false }, values: (_u: uPlot, splits: number[]) => splits.map(() => "") });
-    const opts: uPlot.Options = {
+    return {
       width: Math.max(200, node.clientWidth),
       height: latest.current.height,
       scales,
       legend: { show: false },
-      series: [{}],
+      series: [{}, ...p.series.map(seriesOptions)],
       axes: [
         {
           ...AXIS,
@@ -204,7 +213,17 @@ export function ChartPane(props: ChartPaneProps) {
           },
           values: (u, splits) => {
             const marks = latest.current.marks?.corners ?? [];
-            return splits.map((v) => marks.find((m) => m.x === v)?.name ?? String(Math.round(v * 10) / 10));
+            const named = splits.map((v) => marks.find((m) => m.x === v));
+            if (splits.length === 0 || named.some((m) => m == null)) {
+              delete node.dataset.xLabels;
+              return splits.map((v) => String(Math.round(v * 10) / 10));
+            }
+            // Corner names that never overlap: full, else all short, else some left out.
+            const pos = splits.map((v) => u.valToPos(v, "x"));
+            const texts = cornerLabels(named.map((m, i) => ({ pos: pos[i], name: m!.name })), measureAxisText);
+            // What is drawn where (CSS px from the plot's left), for people's tools and tests.
+            node.dataset.xLabels = JSON.stringify(texts.map((t, i) => ({ text: t, left: pos[i] - measureAxisText(t) / 2, right: pos[i] + measureAxisText(t) / 2 })).filter((l) => l.text));
+            return texts;
           },
         },
         ...yAxes,
@@ -288,48 +307,51 @@ export function ChartPane(props: ChartPaneProps) {
         ],
       },
     };
-    const u = new uPlot(opts, [[]], node);
-    plot.current = u;
-    const ro = new ResizeObserver(() => {
-      const w = Math.max(200, node.clientWidth);
-      if (w !== u.width) u.setSize({ width: w, height: latest.current.height });
-    });
-    ro.observe(node);
-    return () => {
-      ro.disconnect();
-      u.destroy();
+  };
+
+  // Destroy on unmount.
+  useEffect(
+    () => () => {
+      observer.current?.disconnect();
+      plot.current?.destroy();
       plot.current = null;
-    };
-  }, []);
+    },
+    [],
+  );
 
   // New data: adjust the series set only when laps change, then setData (one redraw).
   useEffect(() => {
-    const u = plot.current;
-    if (!u) return;
     const key = props.series.map((s) => `${s.label}|${s.colour}|${s.scale ?? "y"}`).join(";");
+    const xs = props.data[0];
+    const whole: [number, number] | null = xs.length ? [xs[0], xs[xs.length - 1]] : null;
+    let u = plot.current;
+    if (!u) {
+      // Created with its traces and data in one go: one layout and one draw, as bare uPlot.
+      if (xs.length === 0) return;
+      const node = host.current!;
+      ownRange.current = whole;
+      u = new uPlot(buildOptions(node, props), props.data, node);
+      plot.current = u;
+      seriesKey.current = key;
+      const created = u;
+      observer.current = new ResizeObserver(() => {
+        const w = Math.max(200, node.clientWidth);
+        if (w !== created.width) created.setSize({ width: w, height: latest.current.height });
+      });
+      observer.current.observe(node);
+      if (props.xRange) created.setScale("x", { min: props.xRange[0], max: props.xRange[1] });
+      ownRange.current = props.xRange ?? whole;
+      return;
+    }
     if (key !== seriesKey.current) {
       for (let i = u.series.length - 1; i >= 1; i--) u.delSeries(i);
       u.setData(props.data, false);
-      props.series.forEach((s, i) =>
-        u.addSeries(
-          {
-            label: s.label,
-            stroke: s.colour,
-            scale: s.scale ?? "y",
-            width: i === 0 ? 2 : 1.5,
-            dash: s.dash,
-            points: { show: false },
-            ...(s.stepped ? { paths: uPlot.paths.stepped!({ align: 1 }) } : {}),
-          },
-          i + 1,
-        ),
-      );
+      props.series.forEach((s, i) => u!.addSeries(seriesOptions(s, i), i + 1));
       seriesKey.current = key;
     }
     u.setData(props.data, true);
-    const xs = props.data[0];
     if (props.xRange) u.setScale("x", { min: props.xRange[0], max: props.xRange[1] });
-    ownRange.current = props.xRange ?? (xs.length ? [xs[0], xs[xs.length - 1]] : null);
+    ownRange.current = props.xRange ?? whole;
     // props.xRange is applied by its own effect; here only with new data.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [props.data, props.series]);
@@ -356,7 +378,7 @@ export function ChartPane(props: ChartPaneProps) {
   // Which y scale sits on which side (and which grows downwards), for people's tools and tests.
   const axesText = (props.axes ?? [{ scale: "y", side: 3 }]).map((a) => `${a.scale}:${a.side === 3 ? "left" : "right"}${props.scales?.[a.scale]?.dir === -1 ? ":down" : ""}`).join(" ");
   return (
-    <figure className="min-w-0" data-testid={props.testId} data-axes={axesText} data-series-scales={props.series.map((s) => s.scale ?? "y").join(" ")}>
+    <figure className="min-w-0" data-testid={props.testId} data-points={props.data[0].length} data-axes={axesText} data-series-scales={props.series.map((s) => s.scale ?? "y").join(" ")}>
       <figcaption className="flex flex-wrap items-center gap-x-2 gap-y-1 px-1 text-xs">
         <span className="font-semibold text-ink-100">{props.title}</span>
         {props.unit && <span className="text-ink-400">[{props.unit}]</span>}
@@ -382,6 +404,19 @@ export function ChartPane(props: ChartPaneProps) {
       <div ref={host} className="w-full" />
     </figure>
   );
+}
+
+/** One trace's uPlot options (the first, the reference lap, a little heavier). */
+function seriesOptions(s: PaneSeries, i: number): uPlot.Series {
+  return {
+    label: s.label,
+    stroke: s.colour,
+    scale: s.scale ?? "y",
+    width: i === 0 ? 2 : 1.5,
+    dash: s.dash,
+    points: { show: false },
+    ...(s.stepped ? { paths: uPlot.paths.stepped!({ align: 1 }) } : {}),
+  };
 }
 
 /** A round step (1, 2 or 5 × 10^n) at least `raw`. */

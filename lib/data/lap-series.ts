@@ -40,6 +40,8 @@ export interface LapSeriesRequest {
   /** Optional window on the x axis (SI), for zooming in. */
   from?: number;
   to?: number;
+  /** When given, filled with the milliseconds of each stage (benchmarks): lookup, reads, compute. */
+  stages?: Partial<Record<"lookup" | "reads" | "compute", number>>;
 }
 
 export interface LapSeriesResult {
@@ -188,7 +190,14 @@ async function lapTrace(sequelize: Sequelize, channels: ChannelInfo[], lap: LapR
 const SPEED_ROLES = ["speed_front", "speed_rear", "gps_speed"] as const;
 
 export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest, sequelize: Sequelize = getSequelize()): Promise<LapSeriesResult> {
-  const { x } = request;
+  const { x, stages } = request;
+  let stageStart = stages ? performance.now() : 0;
+  const stage = (name: "lookup" | "reads" | "compute") => {
+    if (!stages) return;
+    const now = performance.now();
+    stages[name] = now - stageStart;
+    stageStart = now;
+  };
   // The same lap twice is one lap: colours and the reference follow the first mention.
   const seen = new Set<string>();
   const refs = request.laps.filter((r) => {
@@ -204,6 +213,7 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
   // is dropped with the 404.
   const sessionIds = [...new Set(refs.map((r) => r.sessionId))];
   const [found, channelLists] = await Promise.all([findLaps(ctx, refs), Promise.all(sessionIds.map((id) => listChannels(sequelize, id)))]);
+  stage("lookup");
   const rows = refs.map((r) => {
     const row = found.laps.get(`${r.sessionId}:${r.lap}`);
     // Missing, another team's, or a session this rider may not see: all the same 404.
@@ -243,6 +253,7 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
     trackQuery,
   ]);
 
+  stage("reads");
   const ref = traces[0];
   const refLengthM = ref.lengthM;
   const scaled = traces.map((t) => {
@@ -476,6 +487,7 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
     });
   });
 
+  stage("compute");
   return {
     meta: {
       x,

@@ -104,6 +104,14 @@ describe("Compare from the lap table", () => {
     expect(await page.getByTestId("pane-engine").getAttribute("data-axes")).toBe("y:left gear:right");
     expect(await page.getByTestId("pane-engine").getAttribute("data-series-scales")).toBe("y y gear gear");
     await page.getByTestId("pane-gap").waitFor({ state: "detached" });
+    // The x axis is labelled by the track's corners, and no two drawn labels overlap (each
+    // label's measured extent, in CSS px, ends before the next begins).
+    for (const id of panes) {
+      const labels = JSON.parse((await page.getByTestId(id!).locator("[data-x-labels]").getAttribute("data-x-labels")) ?? "[]") as { text: string; left: number; right: number }[];
+      expect(labels.length).toBeGreaterThanOrEqual(2);
+      expect(labels.every((l) => /^(Turn|T)\s?\d+$/.test(l.text))).toBe(true);
+      for (let i = 1; i < labels.length; i++) expect(labels[i - 1].right).toBeLessThan(labels[i].left);
+    }
   });
 
   it("values at the cursor are chips in each pane's caption, one per lap and channel, as served", async () => {
@@ -206,6 +214,10 @@ describe("Compare from the lap table", () => {
     // Finer than the whole lap: more points per metre in the stretch.
     const perM = (m: LapSeriesMeta, arr: typeof zoomed.arrays) => arr[m.panes[0].x].length / (m.window[1] - m.window[0]);
     expect(perM(zoomed.meta, zoomed.arrays)).toBeGreaterThan(perM(served.meta, served.arrays));
+    // …and the pane draws them: the points it holds match the window's series, more per metre than the whole lap's.
+    const held = Number(await page.getByTestId("pane-inputs").getAttribute("data-points"));
+    expect(held).toBe(zoomed.arrays[zoomed.meta.panes.find((p) => p.role === "throttle")!.x].length);
+    expect(held / (to - from)).toBeGreaterThan(perM(served.meta, served.arrays));
     // Every pane follows the zoom (synced through the setScale hook).
     const ranges = await page.locator("[data-x-min]").evaluateAll((els) => els.map((e) => [Number((e as HTMLElement).dataset.xMin), Number((e as HTMLElement).dataset.xMax)]));
     expect(ranges.length).toBe(4);

@@ -11,7 +11,7 @@ import { initModels, Bike, Finding, Lap, RaceEvent, RideSession, Track } from "@
 import type { SeriesLike } from "@/lib/laps/types";
 import { analyseSeries, type SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
 import { analysisBasis, buildAnalysisBase, PAGE_ROLES, seriesView } from "@/lib/analysis/analysis-base";
-import { precomputePageAnalyses } from "@/lib/analysis/page-analyses";
+import { precomputePageAnalyses } from "@/lib/analysis/precompute-pages";
 import { storedJsonStringify } from "@/lib/analysis/stored-json";
 import { guessTrack, medianPosition, trackCentre, trackGatesForAnalysis } from "./tracks";
 import { haversineM } from "@/lib/findings/haversine-m";

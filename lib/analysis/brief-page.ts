@@ -73,7 +73,7 @@ export function briefCore(base: AnalysisBase): BriefCore {
     const k = base.laps.indexOf(l);
     const [from, to] = lapRange(series.timeS, l);
     const d = lapDistance(base, k, from, to);
-    return { from, d, points: brakingPoints({ distanceM: d, speedMs: v.subarray(from, to), brakeFrontPa: p.subarray(from, to) }, base.corners, { thresholdPa: brakeOnPa }) };
+    return { from, d, points: brakingPoints({ distanceM: d, speedMps: v.subarray(from, to), brakeFrontPa: p.subarray(from, to) }, base.corners, { thresholdPa: brakeOnPa }) };
   };
   const ref = lapPoints(bestLap);
 
@@ -109,8 +109,8 @@ export function briefCore(base: AnalysisBase): BriefCore {
         earlierM: dff.onsetEarlierM,
         peakBar: bar(c?.peakPressurePa),
         bestPeakBar: bar(r?.peakPressurePa),
-        minSpeedKmh: kmh(c?.minSpeedMs),
-        bestMinSpeedKmh: kmh(r?.minSpeedMs),
+        minSpeedKmh: kmh(c?.minSpeedMps),
+        bestMinSpeedKmh: kmh(r?.minSpeedMps),
         at: posAt(ref, r?.apexDistanceM ?? null),
         brakeAt: posAt(cur, c?.onsetDistanceM ?? null),
         bestBrakeAt: posAt(ref, r?.onsetDistanceM ?? null),

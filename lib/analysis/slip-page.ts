@@ -86,8 +86,8 @@ export function slipCore(base: AnalysisBase, leanAsked: boolean): { result: Slip
     targetSlip: target.value,
     minThrottlePct: minThrottle,
     minDurationS: thresholdOf(base, "wheelSpinMinDurationS").value,
-    frontSpeedMs: series.channels.speed_front,
-    wheelieDecelMs2: thresholdOf(base, "wheelieDecelMs2").value,
+    frontSpeedMps: series.channels.speed_front,
+    wheelieDecelMps2: thresholdOf(base, "wheelieDecelMps2").value,
   }).map((e) => {
     const k = lapAt(base, e.startTimeS);
     const d = k >= 0 ? base.dist.distanceM[e.startIndex] - base.dist.lapStartDistanceM[k] : NaN;

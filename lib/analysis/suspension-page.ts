@@ -62,7 +62,7 @@ export function suspensionSides(base: AnalysisBase, from: number, to: number, wi
     for (let i = 0; i < x.length; i++) if (x[i] > observed) observed = x[i];
     // Without the bike's stroke, the deepest travel seen stands in (bottoming then means nothing).
     const strokeM = strokeMm ? strokeMm / 1000 : observed || 1;
-    const u = suspensionUse(x, t, { strokeM, lowHighBoundaryMs: boundaryMs, velocityWindowMs: window, velocityOrder: 2, speedMs: speed?.subarray(from, to), leanDeg: series.channels.lean_angle?.subarray(from, to) });
+    const u = suspensionUse(x, t, { strokeM, lowHighBoundaryMs: boundaryMs, velocityWindowMs: window, velocityOrder: 2, speedMps: speed?.subarray(from, to), leanDeg: series.channels.lean_angle?.subarray(from, to) });
     const mm = (v: number | null) => (v == null || !Number.isFinite(v) ? null : Math.round(v * 10000) / 10);
     return {
       label,

@@ -41,7 +41,7 @@ export interface SeasonRow {
   bestLapMs: number | null;
   bestLapNumber: number | null;
   bestThreeMeanMs: number | null;
-  topSpeedMs: number | null;
+  topSpeedMps: number | null;
   bestSectorsMs: number[] | null;
 }
 
@@ -111,16 +111,16 @@ export async function seasonBaseRows(ctx: TeamContext, where = "", params: (stri
 export async function lapsOfSessions(ids: number[]): Promise<Map<number, RecordLap[]>> {
   const out = new Map<number, RecordLap[]>();
   if (ids.length === 0) return out;
-  const rows = await getSequelize().query<{ sessionId: number; number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMs: number | null; sectorTimesMs: unknown }>(
+  const rows = await getSequelize().query<{ sessionId: number; number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMps: number | null; sectorTimesMs: unknown }>(
     `SELECT session_id AS sessionId, number, lap_time_ms AS lapTimeMs, is_out_lap AS isOutLap, is_in_lap AS isInLap, is_invalid AS isInvalid,
-            pit_pass AS pitPass, top_speed_ms AS topSpeedMs, sector_times_ms AS sectorTimesMs
+            pit_pass AS pitPass, top_speed_mps AS topSpeedMps, sector_times_ms AS sectorTimesMs
        FROM laps WHERE session_id IN (${ids.map(() => "?").join(",")}) ORDER BY session_id, number`,
     { replacements: ids, type: QueryTypes.SELECT },
   );
   for (const r of rows) {
     const sectors = typeof r.sectorTimesMs === "string" ? (JSON.parse(r.sectorTimesMs) as number[] | null) : (r.sectorTimesMs as number[] | null);
     const list = out.get(r.sessionId) ?? [];
-    list.push({ number: r.number, lapTimeMs: r.lapTimeMs, isOutLap: !!r.isOutLap, isInLap: !!r.isInLap, isInvalid: !!r.isInvalid, pitPass: !!r.pitPass, topSpeedMs: r.topSpeedMs, sectorTimesMs: sectors });
+    list.push({ number: r.number, lapTimeMs: r.lapTimeMs, isOutLap: !!r.isOutLap, isInLap: !!r.isInLap, isInvalid: !!r.isInvalid, pitPass: !!r.pitPass, topSpeedMps: r.topSpeedMps, sectorTimesMs: sectors });
     out.set(r.sessionId, list);
   }
   return out;
@@ -151,7 +151,7 @@ export function toSeasonRow(r: RawRow, laps: RecordLap[]): SeasonRow {
     bestLapMs: f.bestLapMs,
     bestLapNumber: f.bestLapNumber,
     bestThreeMeanMs: f.bestThreeMeanMs,
-    topSpeedMs: f.topSpeedMs,
+    topSpeedMps: f.topSpeedMps,
     bestSectorsMs: f.bestSectorsMs,
   };
 }

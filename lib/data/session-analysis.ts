@@ -83,7 +83,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
   const analysis = analyseSeries(
     series,
     track
-      ? { gates: trackGatesForAnalysis(track), pitSpeedLimitMs: track.pitSpeedLimitKmh != null ? track.pitSpeedLimitKmh / 3.6 : null, thresholds: track.thresholds }
+      ? { gates: trackGatesForAnalysis(track), pitSpeedLimitMps: track.pitSpeedLimitKmh != null ? track.pitSpeedLimitKmh / 3.6 : null, thresholds: track.thresholds }
       : null,
     bike
       ? {
@@ -119,7 +119,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
         isInvalid: !!l.invalid,
         pitPass: l.pitPass,
         sectorTimesMs: l.sectorTimesMs as number[],
-        topSpeedMs: l.topSpeedMs,
+        topSpeedMps: l.topSpeedMps,
         stats: { ...l.stats, complete: l.complete, ...(l.suspect ? { suspect: true } : {}) },
       })),
       { transaction: t },

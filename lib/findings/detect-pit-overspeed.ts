@@ -27,10 +27,10 @@ function pitLaneTest(dc: DetectorContext): ((i: number) => boolean) | null {
 
 /** Speed above the pit-lane limit while in the pit lane. */
 export function detectPitOverspeed(dc: DetectorContext): Finding[] {
-  const v = dc.groundSpeedMs;
+  const v = dc.groundSpeedMps;
   const inPit = pitLaneTest(dc);
   if (!v || !inPit) return [];
-  const limit = dc.ctx.track?.pitSpeedLimitMs ?? dc.th.pitSpeedLimitMs;
+  const limit = dc.ctx.track?.pitSpeedLimitMps ?? dc.th.pitSpeedLimitMps;
   const runs = maskRuns(v.length, (i) => v[i] > limit && inPit(i), dc.series.timeS, {
     minDurationS: dc.th.pitOverspeedMinDurationS,
     mergeGapS: 0.5,

@@ -6,7 +6,7 @@ import { markSuspectLaps } from "@/lib/laps/mark-suspect-laps";
 import { bestSectorLap, type BestSectorLap } from "@/lib/laps/best-sector-lap";
 import { extractFixes } from "@/lib/laps/extract-fixes";
 import { lowerBound } from "@/lib/laps/lower-bound";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import type { Gate } from "@/lib/geo/types";
 import { findGateCrossings } from "@/lib/laps/find-gate-crossings";
 import { isFlyingLap, type Lap, type SeriesLike, type TrackGates } from "@/lib/laps/types";

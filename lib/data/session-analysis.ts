@@ -14,7 +14,7 @@ import { analysisBasis, buildAnalysisBase, PAGE_ROLES, seriesView } from "@/lib/
 import { precomputePageAnalyses } from "@/lib/analysis/precompute-pages";
 import { storedJsonStringify } from "@/lib/analysis/stored-json";
 import { guessTrack, medianPosition, trackCentre, trackGatesForAnalysis } from "./tracks";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import { loadAnalysisInputs } from "./analysis";
 
 /** Same event after a re-analysis: same kind and lap, start within this many seconds. */

@@ -1,5 +1,5 @@
 import type { DetectorContext } from "./detector-context";
-import { haversineM } from "./haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import { validFix } from "@/lib/laps/extract-fixes";
 import { kmh, makeFinding, onLap } from "./make-finding";
 import type { Finding } from "./types";

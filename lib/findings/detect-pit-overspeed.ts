@@ -1,7 +1,7 @@
 import { holdForward, type DetectorContext } from "./detector-context";
 import { kmh, makeFinding, onLap } from "./make-finding";
 import { maskRuns } from "./mask-runs";
-import { pointInPolygon } from "./point-in-polygon";
+import { pointInPolygon } from "@/lib/geo/point-in-polygon";
 import type { Finding } from "./types";
 
 /** The caller's pit-lane test per sample: predicate, time ranges or a GPS polygon; null if none given. */

@@ -14,7 +14,7 @@ import { confirmMapping } from "@/lib/data/imports";
 import { ensureTrack, guessTrack } from "@/lib/data/tracks";
 import { reanalyseSession, reanalyseTrackSessions } from "@/lib/data/reanalyse";
 import { CAUTION_TEXT } from "@/lib/findings/caution";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import type { Mapping } from "@/lib/ingest/mapping";
 import type { SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
 import { ingestNow } from "@/workers/ingest/ingest-now";

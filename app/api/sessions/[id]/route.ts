@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { teamRoute } from "@/lib/http/route";
-import { getSessionForViewer } from "@/lib/data/session-detail";
+import { getSessionForViewer } from "@/lib/data/session-for-viewer";
 import { HttpError } from "@/lib/http/http-error";
 
 /** GET /api/sessions/:id — one session; 404 for other teams' sessions and sessions a rider may not see. */

@@ -20,6 +20,7 @@ import {
   throttleFromDemand,
 } from "./bike-model";
 import { gaussian, rngStream, type Rng } from "./prng";
+import { DEMO_ROSTER } from "./demo-roster";
 
 export interface RiderProfile {
   name: string;
@@ -36,8 +37,8 @@ export interface RiderProfile {
 
 /** Invented riders. */
 export const RIDERS: Record<"a" | "b", RiderProfile> = {
-  a: { name: "Demo Rider A", lateralG: 1.27, brakingG: 1.17, brakeGainBarPerG: 10.5, rearBrakeShare: 0.12, scatter: 1 },
-  b: { name: "Demo Rider B", lateralG: 1.21, brakingG: 1.1, brakeGainBarPerG: 10.0, rearBrakeShare: 0.2, scatter: 1.6 },
+  a: { name: DEMO_ROSTER.riders.a.name, lateralG: 1.27, brakingG: 1.17, brakeGainBarPerG: 10.5, rearBrakeShare: 0.12, scatter: 1 },
+  b: { name: DEMO_ROSTER.riders.b.name, lateralG: 1.21, brakingG: 1.1, brakeGainBarPerG: 10.0, rearBrakeShare: 0.2, scatter: 1.6 },
 };
 
 export interface SessionOptions {
@@ -79,8 +80,8 @@ export const DEFAULT_OPTIONS: SessionOptions = {
   pitOverspeed: "in",
   pitOverspeedKmh: 72,
   extendedChannels: false,
-  team: "Pellorin Demo Racing (invented)",
-  bike: "Demo 1000 Superbike #7",
+  team: DEMO_ROSTER.team.name,
+  bike: DEMO_ROSTER.bikes.a.name,
   sessionKind: "practice",
 };
 

@@ -12,7 +12,7 @@ import type { TrackEditorData } from "@/lib/data/track-editor";
 import type { Gate } from "@/lib/geo/types";
 import type { TrackCorner, TrackGates } from "@/lib/geo/stored-track";
 import { Feedback } from "@/components/setup/form-bits";
-import { flipGate, gateAtSnap, gateShape, pointAt, projectionFor, snapToPath, toPath, type Snap } from "./track-geometry";
+import { flipGate, gateAtSnap, gateShape, pointAt, projectionFor, snapToPath, toPath, type Snap } from "@/lib/geo/gate-snapping";
 
 type GateKey = "startFinish" | "pitEntry" | "pitExit";
 type Selection = { kind: GateKey } | { kind: "sector"; index: number } | { kind: "corner"; index: number } | null;

@@ -170,7 +170,7 @@ export class Lap extends Model<InferAttributes<Lap>, InferCreationAttributes<Lap
   declare isInvalid: CreationOptional<boolean>;
   declare pitPass: CreationOptional<boolean>;
   declare sectorTimesMs: number[] | null;
-  declare topSpeedMs: number | null;
+  declare topSpeedMps: number | null;
   declare stats: unknown;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -317,7 +317,7 @@ export function initModels(sequelize: Sequelize = getSequelize()): Sequelize {
     {
       id: defs.id, sessionId: { type: DataTypes.INTEGER, allowNull: false }, number: DataTypes.INTEGER, startTimeS: DataTypes.DOUBLE,
       endTimeS: DataTypes.DOUBLE, lapTimeMs: DataTypes.INTEGER, distanceM: defs.dbl, isOutLap: defs.bool, isInLap: defs.bool, isInvalid: defs.bool,
-      pitPass: defs.bool, sectorTimesMs: defs.json, topSpeedMs: defs.dbl, stats: defs.json, ...defs.ts,
+      pitPass: defs.bool, sectorTimesMs: defs.json, topSpeedMps: defs.dbl, stats: defs.json, ...defs.ts,
     },
     opts("laps"),
   );

@@ -51,19 +51,19 @@ export function overallRatio(gear: number): number {
 }
 
 /** Engine rpm for a rear wheel surface speed (m/s, slip included) in a gear, clutch engaged. */
-export function rpmFromRearSpeed(rearSpeedMs: number, gear: number): number {
-  return (rearSpeedMs / BIKE.rearCircumferenceM) * 60 * overallRatio(gear);
+export function rpmFromRearSpeed(rearSpeedMps: number, gear: number): number {
+  return (rearSpeedMps / BIKE.rearCircumferenceM) * 60 * overallRatio(gear);
 }
 
 /** Aerodynamic plus rolling resistance, as a deceleration (m/s²). */
-export function resistanceMs2(speedMs: number): number {
-  const drag = 0.5 * BIKE.airDensityKgM3 * BIKE.dragAreaM2 * speedMs * speedMs;
+export function resistanceMps2(speedMps: number): number {
+  const drag = 0.5 * BIKE.airDensityKgM3 * BIKE.dragAreaM2 * speedMps * speedMps;
   return drag / BIKE.massKg + BIKE.rollingResistance * G;
 }
 
 /** Ideal lean for a point mass on a curve: tan(lean) = v²κ/g. Positive = leaning right. */
-export function leanAngleDeg(speedMs: number, kappaPerM: number): number {
-  return (-Math.atan((speedMs * speedMs * kappaPerM) / G) * 180) / Math.PI;
+export function leanAngleDeg(speedMps: number, kappaPerM: number): number {
+  return (-Math.atan((speedMps * speedMps * kappaPerM) / G) * 180) / Math.PI;
 }
 
 export interface ProfileInput {
@@ -78,9 +78,9 @@ export interface ProfileInput {
   aDriveMax: Float64Array;
   powerW: Float64Array;
   /** Any other speed cap: pit-lane limit, top gear. */
-  vCapMs: Float64Array;
+  vCapMps: Float64Array;
   v0Ms: number;
-  vEndMs: number;
+  vEndMps: number;
 }
 
 /**
@@ -95,10 +95,10 @@ export function speedProfile(inp: ProfileInput): Float64Array {
   for (let i = 0; i < n; i++) {
     const k = Math.abs(inp.kappa[i]);
     const vCorner = k > 1e-6 ? Math.sqrt(inp.aLatMax[i] / k) : Infinity;
-    vLim[i] = Math.min(vCorner, inp.vCapMs[i]);
+    vLim[i] = Math.min(vCorner, inp.vCapMps[i]);
   }
   vLim[0] = Math.min(vLim[0], inp.v0Ms);
-  vLim[n - 1] = Math.min(vLim[n - 1], inp.vEndMs);
+  vLim[n - 1] = Math.min(vLim[n - 1], inp.vEndMps);
   const share = (v: number, i: number) => {
     const r = (v * v * Math.abs(inp.kappa[i])) / inp.aLatMax[i];
     return Math.max(0.3, Math.sqrt(Math.max(0, 1 - r * r)));
@@ -108,12 +108,12 @@ export function speedProfile(inp: ProfileInput): Float64Array {
   for (let i = 0; i < n - 1; i++) {
     const vi = v[i];
     const drive = Math.min(inp.powerW[i] / (BIKE.massKg * Math.max(vi, 1)), inp.aDriveMax[i]) * share(vi, i);
-    const a = drive - resistanceMs2(vi);
+    const a = drive - resistanceMps2(vi);
     v[i + 1] = Math.min(vLim[i + 1], Math.sqrt(Math.max(0, vi * vi + 2 * a * inp.dsM[i])));
   }
   for (let i = n - 2; i >= 0; i--) {
     const vn = v[i + 1];
-    const a = inp.aBrakeMax[i] * share(vn, i + 1) + resistanceMs2(vn);
+    const a = inp.aBrakeMax[i] * share(vn, i + 1) + resistanceMps2(vn);
     v[i] = Math.min(v[i], Math.sqrt(vn * vn + 2 * a * inp.dsM[i]));
   }
   return v;
@@ -123,10 +123,10 @@ export function speedProfile(inp: ProfileInput): Float64Array {
  * Throttle opening from the drive the profile asks for. Power demand maps to opening with an
  * exponent < 1 because a butterfly gives most of its flow early (common practice, invented curve).
  */
-export function throttleFromDemand(aLongMs2: number, speedMs: number, powerW: number): number {
-  const force = BIKE.massKg * (aLongMs2 + resistanceMs2(speedMs));
+export function throttleFromDemand(aLongMps2: number, speedMps: number, powerW: number): number {
+  const force = BIKE.massKg * (aLongMps2 + resistanceMps2(speedMps));
   if (force <= 0) return 0;
-  const frac = Math.min(1, (force * Math.max(speedMs, 1)) / powerW);
+  const frac = Math.min(1, (force * Math.max(speedMps, 1)) / powerW);
   return 100 * Math.pow(frac, 0.7);
 }
 
@@ -134,8 +134,8 @@ export function throttleFromDemand(aLongMs2: number, speedMs: number, powerW: nu
 export const ENGINE_BRAKING_MS2 = 0.08 * G;
 
 /** Front brake line pressure for the deceleration the brakes must supply (11 bar per g). */
-export function frontBrakeBar(aLongMs2: number, speedMs: number, gainBarPerG: number): number {
-  const brakeDecel = -aLongMs2 - resistanceMs2(speedMs) - ENGINE_BRAKING_MS2;
+export function frontBrakeBar(aLongMps2: number, speedMps: number, gainBarPerG: number): number {
+  const brakeDecel = -aLongMps2 - resistanceMps2(speedMps) - ENGINE_BRAKING_MS2;
   return brakeDecel > 0 ? (brakeDecel / G) * gainBarPerG : 0;
 }
 
@@ -147,26 +147,26 @@ export function frontBrakeBar(aLongMs2: number, speedMs: number, gainBarPerG: nu
 export class GearSelector {
   gear = 0;
 
-  update(rearSpeedMs: number, driving: boolean, holdUpshift: boolean): number {
-    if (rearSpeedMs < 0.5 && !driving) {
+  update(rearSpeedMps: number, driving: boolean, holdUpshift: boolean): number {
+    if (rearSpeedMps < 0.5 && !driving) {
       this.gear = 0;
       return 0;
     }
     if (this.gear === 0) this.gear = 1;
     if (!holdUpshift) {
-      while (this.gear < 6 && rpmFromRearSpeed(rearSpeedMs, this.gear) >= BIKE.shiftRpm) this.gear++;
+      while (this.gear < 6 && rpmFromRearSpeed(rearSpeedMps, this.gear) >= BIKE.shiftRpm) this.gear++;
     }
     if (!driving) {
-      while (this.gear > 1 && rpmFromRearSpeed(rearSpeedMs, this.gear - 1) <= BIKE.downshiftRpm) this.gear--;
+      while (this.gear > 1 && rpmFromRearSpeed(rearSpeedMps, this.gear - 1) <= BIKE.downshiftRpm) this.gear--;
     }
     return this.gear;
   }
 }
 
 /** Engine rpm with a slipping clutch below the speed where 1st gear engages fully. */
-export function engineRpm(rearSpeedMs: number, gear: number, throttlePct: number): number {
+export function engineRpm(rearSpeedMps: number, gear: number, throttlePct: number): number {
   if (gear === 0) return BIKE.idleRpm;
-  const wheelRpm = rpmFromRearSpeed(rearSpeedMs, gear);
+  const wheelRpm = rpmFromRearSpeed(rearSpeedMps, gear);
   if (gear === 1) {
     const clutchRpm = BIKE.idleRpm + 40 * throttlePct + 1500;
     if (wheelRpm < clutchRpm) return clutchRpm;
@@ -195,17 +195,17 @@ export function rearSlip(p: {
 }
 
 /** Fork travel from weight transfer and cornering load, mm (before lag and bumps). */
-export function forkTravelTargetMm(aLongMs2: number, leanDeg: number): number {
+export function forkTravelTargetMm(aLongMps2: number, leanDeg: number): number {
   const loadFactor = 1 / Math.cos((leanDeg * Math.PI) / 180);
-  const gLong = aLongMs2 / G;
+  const gLong = aLongMps2 / G;
   const dive = gLong < 0 ? -gLong * 44 : -gLong * 18;
   return BIKE.forkSagMm + dive + (loadFactor - 1) * 22;
 }
 
 /** Shock travel: squat under drive, extension under braking, cornering load; mm. */
-export function shockTravelTargetMm(aLongMs2: number, leanDeg: number): number {
+export function shockTravelTargetMm(aLongMps2: number, leanDeg: number): number {
   const loadFactor = 1 / Math.cos((leanDeg * Math.PI) / 180);
-  const gLong = aLongMs2 / G;
+  const gLong = aLongMps2 / G;
   const pitch = gLong > 0 ? gLong * 16 : gLong * 8;
   return BIKE.shockSagMm + pitch + (loadFactor - 1) * 14;
 }

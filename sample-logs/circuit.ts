@@ -363,7 +363,7 @@ export const CIRCUIT = {
     /** From the branch off the track before Turn 8 to the merge after Turn 1, every 5 m. */
     polyline: polylineLatLon(PIT.branchS, PIT_SPAN_M, pitPointAt, 5),
     speedLimitKmh: 60,
-    speedLimitMs: 60 / 3.6,
+    speedLimitMps: 60 / 3.6,
     offsetM: PIT.offsetM,
     branchDistanceM: PIT.branchS,
     mergeDistanceM: PIT.mergeS,

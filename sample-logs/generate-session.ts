@@ -20,6 +20,7 @@ import {
   throttleFromDemand,
 } from "./bike-model";
 import { gaussian, rngStream, type Rng } from "./prng";
+import { DEMO_ROSTER } from "./demo-roster";
 
 export interface RiderProfile {
   name: string;
@@ -36,8 +37,8 @@ export interface RiderProfile {
 
 /** Invented riders. */
 export const RIDERS: Record<"a" | "b", RiderProfile> = {
-  a: { name: "Demo Rider A", lateralG: 1.27, brakingG: 1.17, brakeGainBarPerG: 10.5, rearBrakeShare: 0.12, scatter: 1 },
-  b: { name: "Demo Rider B", lateralG: 1.21, brakingG: 1.1, brakeGainBarPerG: 10.0, rearBrakeShare: 0.2, scatter: 1.6 },
+  a: { name: DEMO_ROSTER.riders.a.name, lateralG: 1.27, brakingG: 1.17, brakeGainBarPerG: 10.5, rearBrakeShare: 0.12, scatter: 1 },
+  b: { name: DEMO_ROSTER.riders.b.name, lateralG: 1.21, brakingG: 1.1, brakeGainBarPerG: 10.0, rearBrakeShare: 0.2, scatter: 1.6 },
 };
 
 export interface SessionOptions {
@@ -79,8 +80,8 @@ export const DEFAULT_OPTIONS: SessionOptions = {
   pitOverspeed: "in",
   pitOverspeedKmh: 72,
   extendedChannels: false,
-  team: "Pellorin Demo Racing (invented)",
-  bike: "Demo 1000 Superbike #7",
+  team: DEMO_ROSTER.team.name,
+  bike: DEMO_ROSTER.bikes.a.name,
   sessionKind: "practice",
 };
 
@@ -104,7 +105,7 @@ export interface CornerTruth {
   apexDistanceM: number;
   /** When the bike passes the apex (model path). */
   apexS: number;
-  minSpeedMs: number;
+  minSpeedMps: number;
   /** Where front brake pressure first reaches the onset threshold before this corner. */
   brakeOnsetDistanceM: number | null;
   brakeOnsetS: number | null;
@@ -120,7 +121,7 @@ export interface LapTruth {
   /** Three sectors, flying laps only. */
   sectorTimesMs: number[] | null;
   distanceM: number;
-  topSpeedMs: number;
+  topSpeedMps: number;
   corners: CornerTruth[];
 }
 
@@ -144,7 +145,7 @@ export interface SessionTruth {
   sampleRateHz: number;
   gpsRateHz: number;
   trackLengthM: number;
-  pitLaneLimitMs: number;
+  pitLaneLimitMps: number;
   revCeilingRpm: number;
   brakeOnsetThresholdBar: number;
   movingFromS: number;
@@ -319,13 +320,13 @@ export function generateSession(partial: Partial<SessionOptions> = {}): Generate
   const lapScale = (lap: number) =>
     lap === 0 ? { grip: 0.82, brake: 0.75, power: 0.75 } : lap === N + 1 ? { grip: 0.8, brake: 0.7, power: 0.6 } : { grip: 1, brake: 1, power: 1 };
   // Top gear at a safe margin under the shift rpm, allowing straight-line drive slip.
-  const vTopMs = ((13_650 / overallRatio(6) / 60) * BIKE.rearCircumferenceM) / 1.02;
+  const vTopMps = ((13_650 / overallRatio(6) / 60) * BIKE.rearCircumferenceM) / 1.02;
   const overspeedLap = opts.pitOverspeed === "in" ? N + 1 : opts.pitOverspeed === "out" ? 0 : -1;
   const aLatMax = new Float64Array(n);
   const aBrakeMax = new Float64Array(n);
   const aDriveMax = new Float64Array(n);
   const powerW = new Float64Array(n);
-  const vCapMs = new Float64Array(n);
+  const vCapMps = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const lap = path.lap[i];
     const sc = lapScale(lap);
@@ -335,17 +336,17 @@ export function generateSession(partial: Partial<SessionOptions> = {}): Generate
     aBrakeMax[i] = rider.brakingG * G * sc.brake * vr.brake[c];
     powerW[i] = BIKE.rearWheelPowerW * sc.power;
     aDriveMax[i] = path.inPit[i] ? 0.3 * G : BIKE.wheelieLimitG * G;
-    vCapMs[i] = vTopMs;
+    vCapMps[i] = vTopMps;
     if (path.limitZone[i]) {
-      vCapMs[i] = PIT_TARGET_KMH * KMH;
+      vCapMps[i] = PIT_TARGET_KMH * KMH;
       const u = path.u[i];
       const planted =
         lap === overspeedLap &&
         (lap === 0 ? u > path.uStart + 60 : u < path.uEnd - 140);
-      if (planted) vCapMs[i] = opts.pitOverspeedKmh * KMH;
+      if (planted) vCapMps[i] = opts.pitOverspeedKmh * KMH;
     }
   }
-  const v = speedProfile({ dsM: path.ds, kappa: path.kappa, aLatMax, aBrakeMax, aDriveMax, powerW, vCapMs, v0Ms: 0, vEndMs: 0 });
+  const v = speedProfile({ dsM: path.ds, kappa: path.kappa, aLatMax, aBrakeMax, aDriveMax, powerW, vCapMps, v0Ms: 0, vEndMps: 0 });
 
   // Time along the path (trapezoid on speed).
   const tPath = new Float64Array(n);
@@ -684,7 +685,7 @@ function buildTruth(c: {
         name: corner.name,
         apexDistanceM: corner.apexDistanceM,
         apexS: timeAtU(uApex),
-        minSpeedMs: minV,
+        minSpeedMps: minV,
         brakeOnsetDistanceM: onsetU === null ? null : wrapS(onsetU),
         brakeOnsetS: onsetS,
       });
@@ -705,7 +706,7 @@ function buildTruth(c: {
               (endS - timeAtU(k * L + s2)) * 1000,
             ],
       distanceM: distAtU(uTo) - distAtU(uFrom),
-      topSpeedMs: top,
+      topSpeedMps: top,
       corners,
     });
   }
@@ -758,7 +759,7 @@ function buildTruth(c: {
     });
   }
   // Pit overspeed from the continuous model path inside the speed-limit zone.
-  const limit = pit.speedLimitMs;
+  const limit = pit.speedLimitMps;
   const zoneRuns = runs((i) => path.limitZone[i] === 1 && v[i] > limit, 0, n - 1);
   for (const [a, b] of zoneRuns) {
     let peak = 0;
@@ -781,7 +782,7 @@ function buildTruth(c: {
     sampleRateHz: opts.sampleRateHz,
     gpsRateHz: opts.gpsRateHz,
     trackLengthM: L,
-    pitLaneLimitMs: limit,
+    pitLaneLimitMps: limit,
     revCeilingRpm: BIKE.revCeilingRpm,
     brakeOnsetThresholdBar: BRAKE_ONSET_BAR,
     movingFromS,

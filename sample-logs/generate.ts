@@ -7,6 +7,7 @@
 import { mkdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
+import { DEMO_ROSTER } from "./demo-roster";
 import { RIDERS, generateSession, type GeneratedSession, type SessionOptions } from "./generate-session";
 import { type CsvOptions, csvChunks, gpxChunks, nmeaChunks, toCsvString, truthDocument, writeChunks } from "./write-formats";
 
@@ -59,7 +60,7 @@ async function writeCommitted(dir: string): Promise<void> {
     "demo-session-10min-rider-b",
     generateSession({
       seed: 12, flyingLaps: 5, rider: RIDERS.b, sampleRateHz: 50, gpsRateHz: 25, startedAt: "2031-05-17T14:55:00.000Z",
-      bike: "Demo 1000 Superbike #21", brakeOnStraightLaps: [3], revCeilingLap: null, pitOverspeed: null,
+      bike: DEMO_ROSTER.bikes.b.name, brakeOnStraightLaps: [3], revCeilingLap: null, pitOverspeed: null,
     }),
     // A second dialect for the importer: ';' with decimal comma, time in milliseconds, 50 Hz.
     { delimiter: ";", decimalComma: true, time: "ms" },

@@ -17,6 +17,7 @@ import { confirmMapping, prepareImport, registerUpload } from "../lib/data/impor
 import { ensureTrack } from "../lib/data/tracks";
 import type { Mapping } from "../lib/ingest/mapping";
 import { BIKE } from "../sample-logs/bike-model";
+import { DEMO_ROSTER, type DemoBikeName } from "../sample-logs/demo-roster";
 import { DEMO_PASSWORD, DEMO_TEAM, DEMO_USERS } from "./demo-accounts";
 import { demoTrackInput } from "./demo-track";
 import { ingestNow } from "./ingest/ingest-now";
@@ -24,14 +25,16 @@ import { seedHistory } from "./seed-history";
 
 const SAMPLE_DIR = path.join(config.root, "sample-logs", "files");
 
-const RIDER_B = { name: "Jory Penhallow", raceNumber: "64" };
+const RIDER_B = DEMO_ROSTER.riders.b;
+const BIKE_A = DEMO_ROSTER.bikes.a.name;
+const BIKE_B = DEMO_ROSTER.bikes.b.name;
 
 /** The demo rides: sample-logs files (invented data) and what the team records about each. */
-const DEMO_SESSIONS: { file: string; title: string; rider: "a" | "b"; bike: "Bike 27" | "Bike 64"; kind: SessionKind; profile: string }[] = [
-  { file: "demo-session-20min.csv", title: "Practice 1", rider: "a", bike: "Bike 27", kind: "practice", profile: "Team logger CSV" },
+const DEMO_SESSIONS: { file: string; title: string; rider: "a" | "b"; bike: DemoBikeName; kind: SessionKind; profile: string }[] = [
+  { file: "demo-session-20min.csv", title: "Practice 1", rider: "a", bike: BIKE_A, kind: "practice", profile: "Team logger CSV" },
   // Rider B's logger writes ';' with decimal commas and time in ms: a header of its own, so a profile of its own.
-  { file: "demo-session-10min-rider-b.csv", title: "Practice 1", rider: "b", bike: "Bike 64", kind: "practice", profile: "Team logger CSV (semicolon, ms)" },
-  { file: "three-laps-20hz.csv", title: "Qualifying", rider: "a", bike: "Bike 27", kind: "qualifying", profile: "Team logger CSV" },
+  { file: "demo-session-10min-rider-b.csv", title: "Practice 1", rider: "b", bike: BIKE_B, kind: "practice", profile: "Team logger CSV (semicolon, ms)" },
+  { file: "three-laps-20hz.csv", title: "Qualifying", rider: "a", bike: BIKE_A, kind: "qualifying", profile: "Team logger CSV" },
 ];
 
 export interface SeedOptions {
@@ -110,7 +113,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
   const riderUser = DEMO_USERS.find((u) => u.role === "rider")!;
   const [riderA] = await findOrCreate(
     () => Rider.findOne({ where: { teamId, name: riderUser.name } }),
-    () => Rider.create({ teamId, name: riderUser.name, raceNumber: "27", userId: userIds.rider }),
+    () => Rider.create({ teamId, name: riderUser.name, raceNumber: DEMO_ROSTER.riders.a.raceNumber, userId: userIds.rider }),
   );
   const [riderB] = await findOrCreate(
     () => Rider.findOne({ where: { teamId, name: RIDER_B.name } }),
@@ -137,8 +140,8 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
   const bikes: Record<string, Bike> = {};
   const engines: Record<string, Engine> = {};
   for (const [name, serial, notes] of [
-    ["Bike 27", "LV-E101", "Fresh build for the season opener"],
-    ["Bike 64", "LV-E102", null],
+    [BIKE_A, DEMO_ROSTER.bikes.a.engineSerial, DEMO_ROSTER.bikes.a.engineNotes],
+    [BIKE_B, DEMO_ROSTER.bikes.b.engineSerial, DEMO_ROSTER.bikes.b.engineNotes],
   ] as const) {
     const [bike, created] = await findOrCreate(
       () => Bike.findOne({ where: { teamId, name } }),
@@ -169,7 +172,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
   const upload = opts.upload ?? uploadFromEnv();
   const utapi = upload ? new UTApi({ token: upload.token, apiUrl: upload.apiUrl, ingestUrl: upload.ingestUrl, logLevel: "Error" }) : null;
   // After the first event's sessions: a second event, a setup change with its effect, an engine nearing its rebuild.
-  const history = async () => Object.assign(sessionIds, await seedHistory({ sequelize, teamId, engineerId: userIds.engineer, rider: riderA, bike: bikes["Bike 27"], engine: engines["Bike 27"], track, utapi, say }));
+  const history = async () => Object.assign(sessionIds, await seedHistory({ sequelize, teamId, engineerId: userIds.engineer, rider: riderA, bike: bikes[BIKE_A], engine: engines[BIKE_A], track, utapi, say }));
   if (!upload || !utapi) {
     await history();
     say("no upload service configured (UPLOADTHING_TOKEN, UPLOADTHING_API_URL): demo sessions skipped — `npm start` runs one");

@@ -107,12 +107,12 @@ export function CornerView({ laps, corners, cornerSource, trace, speedUnit, dist
                             <span aria-hidden className="h-2 w-2 rounded-full" style={{ background: lapColour(i) }} />L{l.lap}
                           </span>
                         </td>
-                        <td className="text-right">{sp(f?.entrySpeedMs)}</td>
+                        <td className="text-right">{sp(f?.entrySpeedMps)}</td>
                         <td className="text-right" title="before the reference lap's slowest point">
                           {before == null ? "–" : `${formatDisplay(before, distanceUnit)} ${distanceUnit.unit}`}
                         </td>
-                        <td className="text-right">{sp(f?.minSpeedMs)}</td>
-                        <td className="text-right">{sp(f?.exitSpeedMs)}</td>
+                        <td className="text-right">{sp(f?.minSpeedMps)}</td>
+                        <td className="text-right">{sp(f?.exitSpeedMps)}</td>
                         <td className="text-right" data-testid={`corner-gained-${k}-${i}`} data-si={g ?? ""} style={{ color: i === 0 || g == null ? undefined : g >= 0 ? GAIN_COLOUR : LOSS_COLOUR }}>
                           {i === 0 ? "ref" : g == null ? "–" : `${g >= 0 ? "+" : "−"}${Math.abs(g).toFixed(3)} s`}
                         </td>

@@ -44,7 +44,7 @@ export function SeasonTable({ rows, speedUnit, pageSize = 25 }: { rows: SeasonRo
       col.accessor("bikeName", { header: "Bike", cell: (c) => c.getValue() ?? "—" }),
       col.accessor("bestLapMs", { header: "Best lap", sortUndefined: "last", cell: (c) => <span className="num">{formatLapTime(c.getValue()) || "—"}</span> }),
       col.accessor("bestThreeMeanMs", { header: "Best-3 mean", sortUndefined: "last", cell: (c) => <span className="num">{formatLapTime(c.getValue()) || "—"}</span> }),
-      col.accessor("topSpeedMs", { header: "Top speed", cell: (c) => <span className="num">{speed(c.getValue(), speedUnit)}</span> }),
+      col.accessor("topSpeedMps", { header: "Top speed", cell: (c) => <span className="num">{speed(c.getValue(), speedUnit)}</span> }),
       col.accessor("conditions", { header: "Conditions", enableSorting: false, cell: (c) => c.getValue() ?? "—" }),
       col.accessor("setupVersion", { header: "Setup", cell: (c) => (c.getValue() == null ? "—" : <span className="num">v{c.getValue()}</span>) }),
       col.accessor("findingsOpen", {

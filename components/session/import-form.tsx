@@ -4,7 +4,7 @@
  * column, with the suggestion's confidence). Checked in the browser with the same zod schema the
  * server action uses; the server's per-field errors land on the same fields.
  */
-import type { ImportScreenColumn, SessionDetailsView } from "@/lib/data/session-details";
+import type { ImportScreenColumn, SessionDetailsView } from "@/lib/data/session-edit";
 import { useState, useTransition } from "react";
 import { FormProvider, useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";

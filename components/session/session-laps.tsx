@@ -75,7 +75,7 @@ export async function SessionLaps({ data }: { data: ReturnType<typeof listSessio
     const ts = flying.map((l) => l.sectorTimesMs[s]).filter((t): t is number => t != null);
     return ts.length ? Math.min(...ts) : null;
   });
-  const tops = laps.map((l) => l.topSpeedMs).filter((v): v is number => v != null);
+  const tops = laps.map((l) => l.topSpeedMps).filter((v): v is number => v != null);
   const bestTop = tops.length ? Math.max(...tops) : null;
   const bsl = bestSectorLap(lib);
   // The default selection for Compare: the best flying lap against the next best.
@@ -135,7 +135,7 @@ export async function SessionLaps({ data }: { data: ReturnType<typeof listSessio
                     );
                   })}
                   <td className="num">
-                    <Best best={l.topSpeedMs != null && l.topSpeedMs === bestTop} label="top speed">{formatDisplay(l.topSpeedMs, speedUnit)}</Best>
+                    <Best best={l.topSpeedMps != null && l.topSpeedMps === bestTop} label="top speed">{formatDisplay(l.topSpeedMps, speedUnit)}</Best>
                   </td>
                   <td><Flags lap={l} /></td>
                   <td>

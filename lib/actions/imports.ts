@@ -1,7 +1,7 @@
 "use server";
 /**
  * Session import and details actions. Each checks the caller's role with the shared guard, validates
- * with the same zod schema the form uses, then calls lib/data/session-details.ts (which checks the
+ * with the same zod schema the form uses, then calls lib/data/session-edit.ts (which checks the
  * role and the team again), revalidates the screens that show the session, and answers the form
  * with errors by field.
  */
@@ -10,7 +10,7 @@ import { redirect } from "next/navigation";
 import { actionTeam } from "@/lib/auth/page-guard";
 import { HttpError } from "@/lib/http/http-error";
 import { parseId } from "@/lib/http/parse-id";
-import { confirmImport, importKeepingFirstOfRepeatedTimes, reimport, saveSessionDetails } from "@/lib/data/session-details";
+import { confirmImport, importKeepingFirstOfRepeatedTimes, reimport, saveSessionDetails } from "@/lib/data/session-edit";
 import { resolveTeamDuplicate } from "@/lib/data/imports";
 import { fieldErrors, type FormState } from "@/lib/forms/form-state";
 import { importFormSchema, sessionDetailsSchema, type ImportFormInput, type SessionDetailsInput } from "@/lib/forms/session-form";

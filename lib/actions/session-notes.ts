@@ -11,7 +11,7 @@ import { actionTeam } from "@/lib/auth/page-guard";
 import type { GuardOptions, TeamContext } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
 import { createSessionNote, deleteSessionNote } from "@/lib/data/session-notes";
-import { fieldErrors } from "@/lib/data/form-fields";
+import { fieldErrors } from "@/lib/forms/form-state";
 import { parseId } from "@/lib/http/parse-id";
 import { formValues, type SetupActionState } from "./setup-state";
 import { recordActivity } from "@/lib/data/activity-log";

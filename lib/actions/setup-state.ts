@@ -8,7 +8,7 @@ import { ZodError } from "zod";
 import { actionTeam } from "@/lib/auth/page-guard";
 import type { TeamContext } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
-import { fieldErrors } from "@/lib/data/form-fields";
+import { fieldErrors } from "@/lib/forms/form-fields";
 
 export interface SetupActionState {
   ok?: boolean;

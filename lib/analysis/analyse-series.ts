@@ -6,7 +6,7 @@ import { markSuspectLaps } from "@/lib/laps/mark-suspect-laps";
 import { bestSectorLap, type BestSectorLap } from "@/lib/laps/best-sector-lap";
 import { extractFixes } from "@/lib/laps/extract-fixes";
 import { lowerBound } from "@/lib/laps/lower-bound";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import type { Gate } from "@/lib/geo/types";
 import { findGateCrossings } from "@/lib/laps/find-gate-crossings";
 import { isFlyingLap, type Lap, type SeriesLike, type TrackGates } from "@/lib/laps/types";
@@ -21,7 +21,7 @@ import { engineUsage, type EngineUsage } from "@/lib/engine/engine-usage";
 export interface AnalysisTrack {
   gates: TrackGates | null;
   /** The track's pit-lane limit, m/s. */
-  pitSpeedLimitMs?: number | null;
+  pitSpeedLimitMps?: number | null;
   /** Track settings over the bike's and the defaults (DEFAULT_THRESHOLDS keys; others ignored). */
   thresholds?: Record<string, number> | null;
 }
@@ -37,8 +37,8 @@ export interface AnalysisBike {
 export interface AnalysedLap extends Lap {
   /** Lap length along the distance channel, m; null where there is no distance. */
   distanceM: number | null;
-  topSpeedMs: number | null;
-  stats: { minSpeedMs: number | null; speedSource: string | null; distanceSource: string; maxRpm: number | null };
+  topSpeedMps: number | null;
+  stats: { minSpeedMps: number | null; speedSource: string | null; distanceSource: string; maxRpm: number | null };
 }
 
 export interface AnalysedFinding extends Finding {
@@ -76,7 +76,7 @@ export interface SessionAnalysisSummary {
   flyingLapCount: number;
   bestLap: { number: number; lapTimeMs: number } | null;
   bestSectorLap: BestSectorLap | null;
-  topSpeedMs: number | null;
+  topSpeedMps: number | null;
   distanceM: number | null;
   findingCounts: Partial<Record<FindingKind, number>>;
   engine: SessionEngineSummary | null;
@@ -235,9 +235,9 @@ export function analyseSeries(
     return {
       ...lap,
       distanceM: hasDistance ? dist.lapLengthM[k] : null,
-      topSpeedMs: finiteOrNull(s.topSpeedMs),
+      topSpeedMps: finiteOrNull(s.topSpeedMps),
       stats: {
-        minSpeedMs: finiteOrNull(s.minSpeedMs),
+        minSpeedMps: finiteOrNull(s.minSpeedMps),
         speedSource: s.speedSource,
         distanceSource: dist.source,
         maxRpm: finiteOrNull(s.channels.engine_rpm?.max),
@@ -250,7 +250,7 @@ export function analyseSeries(
   const events = runFindings(series, {
     laps,
     track: {
-      pitSpeedLimitMs: finiteOrNull(track?.pitSpeedLimitMs) ?? undefined,
+      pitSpeedLimitMps: finiteOrNull(track?.pitSpeedLimitMps) ?? undefined,
       ...(pitTimes.length ? { pitLaneTimes: pitTimes } : {}),
     },
     bike: {
@@ -276,11 +276,11 @@ export function analyseSeries(
 
   const flying = analysedLaps.filter(isFlyingLap);
   const best = flying.reduce<AnalysedLap | null>((b, l) => (b === null || l.lapTimeMs < b.lapTimeMs ? l : b), null);
-  let topSpeedMs: number | null = null;
-  for (const l of analysedLaps) if (l.topSpeedMs != null && (topSpeedMs === null || l.topSpeedMs > topSpeedMs)) topSpeedMs = l.topSpeedMs;
+  let topSpeedMps: number | null = null;
+  for (const l of analysedLaps) if (l.topSpeedMps != null && (topSpeedMps === null || l.topSpeedMps > topSpeedMps)) topSpeedMps = l.topSpeedMps;
   if (laps.length === 0) {
     const v = series.channels.speed_front ?? series.channels.gps_speed;
-    if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]) && (topSpeedMs === null || v[i] > topSpeedMs)) topSpeedMs = v[i];
+    if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]) && (topSpeedMps === null || v[i] > topSpeedMps)) topSpeedMps = v[i];
   }
   const counts: Partial<Record<FindingKind, number>> = {};
   for (const f of events) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
@@ -324,7 +324,7 @@ export function analyseSeries(
       flyingLapCount: flying.length,
       bestLap: best ? { number: best.number, lapTimeMs: best.lapTimeMs } : null,
       bestSectorLap: bestSectorLap(laps),
-      topSpeedMs,
+      topSpeedMps,
       distanceM: hasDistance && n ? dist.distanceM[n - 1] : null,
       findingCounts: counts,
       engine,

@@ -168,7 +168,7 @@ export function buildAnalysisBase(inputs: AnalysisInputs, series: SessionSeries,
  * Bump when a page computation changes what it returns: every stored part then reads as stale
  * and is recomputed on request until the session is analysed again.
  */
-export const STORED_ANALYSIS_VERSION = 2;
+export const STORED_ANALYSIS_VERSION = 3;
 
 /**
  * A hash of everything besides the samples that the page results depend on: the laps (a lap

@@ -1,7 +1,7 @@
 import "server-only";
 import { notFound } from "next/navigation";
 import { pageTeam } from "@/lib/auth/page-guard";
-import { getSessionForViewer, type SessionDetail } from "@/lib/data/session-detail";
+import { getSessionForViewer, type SessionDetail } from "@/lib/data/session-for-viewer";
 import type { TeamContext } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
 

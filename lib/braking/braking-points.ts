@@ -3,7 +3,7 @@ import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
 export interface BrakingLap {
   /** Distance from the lap's start (m), increasing. */
   distanceM: ArrayLike<number>;
-  speedMs: ArrayLike<number>;
+  speedMps: ArrayLike<number>;
   brakeFrontPa: ArrayLike<number>;
 }
 
@@ -33,7 +33,7 @@ export interface BrakingPoint {
   /** Where it last fell back below the threshold (m, interpolated). */
   releaseDistanceM: number | null;
   peakPressurePa: number | null;
-  minSpeedMs: number;
+  minSpeedMps: number;
   /** This lap's apex: where the minimum speed was (m). */
   apexDistanceM: number;
   /** Braking distance: onset to apex (m). */
@@ -58,7 +58,7 @@ export function brakingPoints(lap: BrakingLap, corners: readonly BrakingCorner[]
   const threshold = opts.thresholdPa ?? DEFAULT_THRESHOLDS.brakeAppliedPa.value;
   const apexSearchM = opts.apexSearchM ?? 60;
   const mergeGapM = opts.mergeGapM ?? 20;
-  const { distanceM: d, speedMs: v, brakeFrontPa: p } = lap;
+  const { distanceM: d, speedMps: v, brakeFrontPa: p } = lap;
   const n = d.length;
   const sorted = [...corners].sort((a, b) => a.distanceM - b.distanceM);
 
@@ -82,18 +82,18 @@ export function brakingPoints(lap: BrakingLap, corners: readonly BrakingCorner[]
       if (apexI < 0 || v[i] < v[apexI]) apexI = i;
     }
     const apexM = apexI >= 0 ? d[apexI] : c.distanceM;
-    const minSpeedMs = apexI >= 0 ? v[apexI] : NaN;
+    const minSpeedMps = apexI >= 0 ? v[apexI] : NaN;
     let run: [number, number] | undefined;
     for (const r of runs) if (d[r[0]] > prevApexM && d[r[0]] <= apexM) run = r;
     prevApexM = apexM;
     if (!run) {
-      return { name: c.name, braked: false, onsetDistanceM: null, releaseDistanceM: null, peakPressurePa: null, minSpeedMs, apexDistanceM: apexM, onsetToApexM: null };
+      return { name: c.name, braked: false, onsetDistanceM: null, releaseDistanceM: null, peakPressurePa: null, minSpeedMps, apexDistanceM: apexM, onsetToApexM: null };
     }
     const [s, e] = run;
     const onset = s > 0 ? crossing(d, p, s - 1, s, threshold) : d[s];
     const release = e + 1 < n ? crossing(d, p, e, e + 1, threshold) : d[e];
     let peak = -Infinity;
     for (let i = s; i <= e; i++) if (p[i] > peak) peak = p[i];
-    return { name: c.name, braked: true, onsetDistanceM: onset, releaseDistanceM: release, peakPressurePa: peak, minSpeedMs, apexDistanceM: apexM, onsetToApexM: apexM - onset };
+    return { name: c.name, braked: true, onsetDistanceM: onset, releaseDistanceM: release, peakPressurePa: peak, minSpeedMps, apexDistanceM: apexM, onsetToApexM: apexM - onset };
   });
 }

@@ -7,7 +7,7 @@ export interface BrakingDifference {
   /** Release earlier (+) / later (−) than the reference (m). */
   releaseEarlierM: number | null;
   /** Minimum speed minus the reference's (m/s). */
-  minSpeedDeltaMs: number;
+  minSpeedDeltaMps: number;
   /** Peak pressure minus the reference's (Pa). */
   peakPressureDeltaPa: number | null;
   /** One plain sentence for the Rider brief. */
@@ -41,7 +41,7 @@ export function compareBraking(
       const m = Math.round(Math.abs(onset));
       text = Math.abs(onset) < sameWithinM ? `${p.name}: you braked at about the same point as on ${label}.` : `${p.name}: you braked ${m} m ${onset > 0 ? "earlier" : "later"} than on ${label}.`;
     }
-    out.push({ name: p.name, onsetEarlierM: onset, releaseEarlierM: release, minSpeedDeltaMs: p.minSpeedMs - r.minSpeedMs, peakPressureDeltaPa: peak, text });
+    out.push({ name: p.name, onsetEarlierM: onset, releaseEarlierM: release, minSpeedDeltaMps: p.minSpeedMps - r.minSpeedMps, peakPressureDeltaPa: peak, text });
   }
   return out;
 }

@@ -4,7 +4,7 @@ export interface FindCornersOptions {
    * highest speeds either side before a slower point (its prominence), m/s. Default 5 m/s
    * (18 km/h) — Lapbench's setting: enough to skip a lift on a straight, not a fast kink.
    */
-  minProminenceMs?: number;
+  minProminenceMps?: number;
   /** Two minima closer than this along the lap are one corner, the slower kept (m). Default 40. */
   minSeparationM?: number;
   /**
@@ -12,7 +12,7 @@ export interface FindCornersOptions {
    * minimum speed (m/s): a constant-radius arc at the grip limit is a plateau of speed, and
    * sensor noise puts the single lowest sample anywhere on it. Default 0.5 m/s.
    */
-  apexBandMs?: number;
+  apexBandMps?: number;
 }
 
 export interface FoundCorner {
@@ -21,28 +21,28 @@ export interface FoundCorner {
   index: number;
   /** Apex: middle of the slowest stretch of the corner, from the lap start (m). */
   distanceM: number;
-  /** Where the slowest stretch (within apexBandMs of the minimum) begins and ends (m). */
+  /** Where the slowest stretch (within apexBandMps of the minimum) begins and ends (m). */
   slowFromM: number;
   slowToM: number;
-  minSpeedMs: number;
-  prominenceMs: number;
+  minSpeedMps: number;
+  prominenceMps: number;
 }
 
 /**
  * Corners of a track from the reference lap's speed trace: the local minima of speed whose
- * topographic prominence is at least `minProminenceMs`. `speedMs` and `distanceM` are the
+ * topographic prominence is at least `minProminenceMps`. `speedMps` and `distanceM` are the
  * reference lap's samples (distance from the lap's start); NaN samples are skipped.
  */
-export function findCorners(speedMs: ArrayLike<number>, distanceM: ArrayLike<number>, opts: FindCornersOptions = {}): FoundCorner[] {
-  const minProm = opts.minProminenceMs ?? 5;
+export function findCorners(speedMps: ArrayLike<number>, distanceM: ArrayLike<number>, opts: FindCornersOptions = {}): FoundCorner[] {
+  const minProm = opts.minProminenceMps ?? 5;
   const minSep = opts.minSeparationM ?? 40;
-  const band = opts.apexBandMs ?? 0.5;
+  const band = opts.apexBandMps ?? 0.5;
   // Compact the finite samples so NaN gaps (slow GPS speed) do not make false minima.
   const idx: number[] = [];
-  for (let i = 0; i < speedMs.length; i++) if (Number.isFinite(speedMs[i]) && Number.isFinite(distanceM[i])) idx.push(i);
+  for (let i = 0; i < speedMps.length; i++) if (Number.isFinite(speedMps[i]) && Number.isFinite(distanceM[i])) idx.push(i);
   const m = idx.length;
   const v = new Float64Array(m);
-  for (let k = 0; k < m; k++) v[k] = speedMs[idx[k]];
+  for (let k = 0; k < m; k++) v[k] = speedMps[idx[k]];
 
   const found: FoundCorner[] = [];
   let k = 1;
@@ -75,7 +75,7 @@ export function findCorners(speedMs: ArrayLike<number>, distanceM: ArrayLike<num
       // The sample nearest the middle of the slow stretch is the apex.
       let at = idx[lo];
       for (let q = lo; q <= hi; q++) if (Math.abs(distanceM[idx[q]] - mid) < Math.abs(distanceM[at] - mid)) at = idx[q];
-      found.push({ name: "", index: at, distanceM: distanceM[at], slowFromM: fromM, slowToM: toM, minSpeedMs: vmin, prominenceMs: prominence });
+      found.push({ name: "", index: at, distanceM: distanceM[at], slowFromM: fromM, slowToM: toM, minSpeedMps: vmin, prominenceMps: prominence });
     }
     k = e + 1;
   }
@@ -85,7 +85,7 @@ export function findCorners(speedMs: ArrayLike<number>, distanceM: ArrayLike<num
     const last = merged[merged.length - 1];
     // Same corner: apexes close together, or overlapping slow stretches (noise on a plateau).
     if (last && (c.distanceM - last.distanceM < minSep || c.slowFromM <= last.slowToM)) {
-      if (c.minSpeedMs < last.minSpeedMs) merged[merged.length - 1] = c;
+      if (c.minSpeedMps < last.minSpeedMps) merged[merged.length - 1] = c;
     } else merged.push(c);
   }
   merged.forEach((c, i) => (c.name = `Corner ${i + 1}`));

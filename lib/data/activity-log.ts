@@ -9,7 +9,7 @@ import { QueryTypes } from "sequelize";
 import { getSequelize } from "@/models/db";
 import type { TeamContext } from "@/lib/auth/guard";
 import { forbidden } from "@/lib/http/http-error";
-import { getSessionForViewer } from "./session-detail";
+import { getSessionForViewer } from "./session-for-viewer";
 import { userNames } from "./setup-sheets";
 
 export interface ActivityInput {

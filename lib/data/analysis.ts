@@ -4,7 +4,7 @@
  * lib/data/session-analysis.ts) as long as the laps, bike and track settings they were computed
  * from are unchanged; a changed setting (lean correction, velocity window, low/high split) or a
  * stale or missing part computes on request from the stored samples (loadAnalysisBase and the
- * plain lib/analysis/page-analyses.ts functions, the same ones ingest runs). Callers check access
+ * plain lib/analysis/*-page.ts functions, the same ones ingest runs). Callers check access
  * first (getSessionForViewer); these functions take a session id that is already allowed.
  */
 import { QueryTypes, type Sequelize, type Transaction } from "sequelize";
@@ -13,22 +13,11 @@ import type { ChannelRole } from "@/lib/channels/roles";
 import type { Lap } from "@/lib/laps/types";
 import { recomputeCached, roundBoundaryMs } from "./recompute-cache";
 import { analysisBasis, buildAnalysisBase, PAGE_ROLES, pageRoles, type AnalysisBase, type AnalysisInputs, type BikeInfo } from "@/lib/analysis/analysis-base";
-import {
-  briefLapShown,
-  computeBrief,
-  computeGears,
-  computeSlip,
-  computeSuspension,
-  slipLapShown,
-  suspensionSettings,
-  type GearAnalysis,
-  type RiderBrief,
-  type SlipAnalysis,
-  type SlipTrace,
-  type StoredBrief,
-  type StoredSuspension,
-  type SuspensionAnalysis,
-} from "@/lib/analysis/page-analyses";
+import { computeSlip, slipLapShown, type SlipAnalysis, type SlipTrace } from "@/lib/analysis/slip-page";
+import { computeSuspension, suspensionSettings, type SuspensionAnalysis } from "@/lib/analysis/suspension-page";
+import { computeGears, type GearAnalysis } from "@/lib/analysis/gears-page";
+import { briefLapShown, computeBrief, type RiderBrief } from "@/lib/analysis/brief-page";
+import type { StoredBrief, StoredSuspension } from "@/lib/analysis/precompute-pages";
 import { storedJsonParse } from "@/lib/analysis/stored-json";
 import { loadSessionSeries } from "./session-series";
 import { jsonColumn } from "./json-column";
@@ -37,8 +26,12 @@ import { trackGatesForAnalysis } from "@/lib/laps/track-gates-for-analysis";
 
 export type { AnalysisBase, BikeInfo, LapInfo } from "@/lib/analysis/analysis-base";
 export { lapRange } from "@/lib/analysis/analysis-base";
-export type { SpinRow, SlipAnalysis, SuspensionSide, SuspensionAnalysis, GearAnalysis, BriefCorner, RiderBrief, CornerExitSlip } from "@/lib/analysis/page-analyses";
-export { SG_WINDOWS, BRIEF_BRAKE_THRESHOLD_PA } from "@/lib/analysis/page-analyses";
+export type { SpinRow, SlipAnalysis, CornerExitSlip } from "@/lib/analysis/slip-page";
+export type { SuspensionSide, SuspensionAnalysis } from "@/lib/analysis/suspension-page";
+export type { GearAnalysis } from "@/lib/analysis/gears-page";
+export type { BriefCorner, RiderBrief } from "@/lib/analysis/brief-page";
+export { SG_WINDOWS } from "@/lib/analysis/suspension-page";
+export { BRIEF_BRAKE_THRESHOLD_PA } from "@/lib/analysis/brief-page";
 
 /** The session's rows as the page analyses read them. Ingest maps its own rows through this too, so both hash to the same basis. */
 export function analysisInputsFromRows(session: Pick<RideSession, "id" | "title">, lapRows: LapModel[], bikeRow: Bike | null, trackRow: Track | null): AnalysisInputs {

@@ -6,7 +6,7 @@ import type { TeamContext } from "@/lib/auth/guard";
 import { notFound } from "@/lib/http/http-error";
 import { assertCanEditSetup } from "./setup-access";
 import { jsonColumn } from "./json-column";
-import { optionalNumber } from "./form-fields";
+import { optionalNumber } from "@/lib/forms/form-fields";
 
 /**
  * Ranges are plausibility limits for a road-racing motorcycle, there to catch typos (a rear

@@ -15,7 +15,7 @@ import { HttpError, notFound } from "@/lib/http/http-error";
 import { DEFAULT_LEDGER_WARN_PCT, type EngineLedger } from "@/lib/engine/engine-ledger";
 import { assertCanEditSetup } from "./setup-access";
 import { defaultLedgerRpm, ledgerOf, sessionUsage, type LedgerSessionRow } from "./engines";
-import { optionalId } from "./form-fields";
+import { optionalId } from "@/lib/forms/form-fields";
 import { userNames } from "./setup-sheets";
 
 export interface EngineHistoryEntry {

@@ -15,7 +15,7 @@ import { ENGINE_LEDGER_RPM_SHARE } from "@/lib/analysis/analyse-series";
 import { assertCanEditSetup } from "./setup-access";
 import { jsonColumn } from "./json-column";
 import { loadSessionSeries } from "./session-series";
-import { optionalId, optionalNumber } from "./form-fields";
+import { optionalId, optionalNumber } from "@/lib/forms/form-fields";
 import { ownBike } from "./bikes";
 import { recomputeCached, roundRpm } from "./recompute-cache";
 import { sessionVisibility } from "./sessions";

@@ -7,7 +7,7 @@ import type { TeamContext } from "@/lib/auth/guard";
 import { notFound } from "@/lib/http/http-error";
 import { assertCanEditSetup } from "./setup-access";
 import { sessionVisibility } from "./sessions";
-import { optionalId } from "./form-fields";
+import { optionalId } from "@/lib/forms/form-fields";
 
 const isoDate = (label: string) =>
   z

@@ -8,7 +8,7 @@ import { initModels, Finding, RideSession } from "@/models";
 import { roleCan, type TeamContext } from "@/lib/auth/guard";
 import { HttpError, forbidden } from "@/lib/http/http-error";
 import { sessionVisibility } from "./sessions";
-import { getSessionForViewer } from "./session-detail";
+import { getSessionForViewer } from "./session-for-viewer";
 import { sessionOutline, type Outline } from "./session-outline";
 
 export interface FindingView {

@@ -447,7 +447,7 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
   const braking = traces.map((t, i) => {
     const v = speedRole ? t.values.get(speedRole) : undefined;
     const p = t.values.get("brake_front");
-    return v && p ? brakingPoints({ distanceM: scaled[i].d, speedMs: v, brakeFrontPa: p }, apexes, { thresholdPa: BRAKE_THRESHOLD_PA }) : null;
+    return v && p ? brakingPoints({ distanceM: scaled[i].d, speedMps: v, brakeFrontPa: p }, apexes, { thresholdPa: BRAKE_THRESHOLD_PA }) : null;
   });
   apexes.forEach((c, k) => {
     const fromM = k === 0 ? 0 : (apexes[k - 1].distanceM + c.distanceM) / 2;
@@ -475,11 +475,11 @@ export async function loadLapSeries(ctx: TeamContext, request: LapSeriesRequest,
         const tIn = at(d, t.tRel, fromM);
         const tOut = at(d, t.tRel, toM);
         return {
-          entrySpeedMs: entry,
+          entrySpeedMps: entry,
           brakingPointM: braking[i]?.find((b) => b.name === c.name)?.onsetDistanceM ?? null,
-          minSpeedMs: Number.isFinite(minV) ? minV : NaN,
+          minSpeedMps: Number.isFinite(minV) ? minV : NaN,
           apexM,
-          exitSpeedMs: exit,
+          exitSpeedMps: exit,
           timeS: tOut - tIn,
           gainedS: i === 0 ? 0 : (refOut - refIn) - (tOut - tIn),
         };

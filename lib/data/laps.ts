@@ -19,7 +19,7 @@ export interface LapRow {
   lapTimeMs: number;
   distanceM: number | null;
   sectorTimesMs: (number | null)[];
-  topSpeedMs: number | null;
+  topSpeedMps: number | null;
   outLap: boolean;
   inLap: boolean;
   pitPass: boolean;
@@ -51,7 +51,7 @@ interface LapDbRow {
   lapTimeMs: number;
   distanceM: number | null;
   sectorTimesMs: unknown;
-  topSpeedMs: number | null;
+  topSpeedMps: number | null;
   isOutLap: number | boolean;
   isInLap: number | boolean;
   isInvalid: number | boolean;
@@ -60,7 +60,7 @@ interface LapDbRow {
 }
 
 const LAP_COLUMNS = `l.session_id AS sessionId, l.number AS number, l.start_time_s AS startTimeS, l.end_time_s AS endTimeS,
-  l.lap_time_ms AS lapTimeMs, l.distance_m AS distanceM, l.sector_times_ms AS sectorTimesMs, l.top_speed_ms AS topSpeedMs,
+  l.lap_time_ms AS lapTimeMs, l.distance_m AS distanceM, l.sector_times_ms AS sectorTimesMs, l.top_speed_mps AS topSpeedMps,
   l.is_out_lap AS isOutLap, l.is_in_lap AS isInLap, l.is_invalid AS isInvalid, l.pit_pass AS pitPass, l.stats AS stats`;
 
 function toRow(l: LapDbRow): LapRow {
@@ -75,7 +75,7 @@ function toRow(l: LapDbRow): LapRow {
     lapTimeMs: l.lapTimeMs,
     distanceM: l.distanceM,
     sectorTimesMs: jsonColumn<(number | null)[]>(l.sectorTimesMs) ?? [],
-    topSpeedMs: l.topSpeedMs,
+    topSpeedMps: l.topSpeedMps,
     outLap,
     inLap,
     pitPass: Boolean(l.pitPass),

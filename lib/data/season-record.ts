@@ -43,7 +43,7 @@ export interface SeasonRow {
   bestLapMs: number | null;
   bestLapNumber: number | null;
   bestThreeMeanMs: number | null;
-  topSpeedMs: number | null;
+  topSpeedMps: number | null;
   bestSectorsMs: number[] | null;
 }
 
@@ -113,9 +113,9 @@ export async function seasonBaseRows(ctx: TeamContext, where = "", params: (stri
 export async function lapsOfSessions(ids: number[]): Promise<Map<number, RecordLap[]>> {
   const out = new Map<number, RecordLap[]>();
   if (ids.length === 0) return out;
-  const rows = await getSequelize().query<{ sessionId: number; number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMs: number | null; sectorTimesMs: unknown; stats: unknown }>(
+  const rows = await getSequelize().query<{ sessionId: number; number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMps: number | null; sectorTimesMs: unknown; stats: unknown }>(
     `SELECT session_id AS sessionId, number, lap_time_ms AS lapTimeMs, is_out_lap AS isOutLap, is_in_lap AS isInLap, is_invalid AS isInvalid,
-            pit_pass AS pitPass, top_speed_ms AS topSpeedMs, sector_times_ms AS sectorTimesMs, stats
+            pit_pass AS pitPass, top_speed_mps AS topSpeedMps, sector_times_ms AS sectorTimesMs, stats
        FROM laps WHERE session_id IN (${ids.map(() => "?").join(",")}) ORDER BY session_id, number`,
     { replacements: ids, type: QueryTypes.SELECT },
   );
@@ -123,7 +123,7 @@ export async function lapsOfSessions(ids: number[]): Promise<Map<number, RecordL
     const sectors = typeof r.sectorTimesMs === "string" ? (JSON.parse(r.sectorTimesMs) as number[] | null) : (r.sectorTimesMs as number[] | null);
     const list = out.get(r.sessionId) ?? [];
     const state = storedLapState(jsonColumn<{ complete?: boolean; suspect?: boolean }>(r.stats), !!r.isOutLap, !!r.isInLap);
-    list.push({ number: r.number, lapTimeMs: r.lapTimeMs, isOutLap: !!r.isOutLap, isInLap: !!r.isInLap, isInvalid: !!r.isInvalid, pitPass: !!r.pitPass, topSpeedMs: r.topSpeedMs, sectorTimesMs: sectors, ...state });
+    list.push({ number: r.number, lapTimeMs: r.lapTimeMs, isOutLap: !!r.isOutLap, isInLap: !!r.isInLap, isInvalid: !!r.isInvalid, pitPass: !!r.pitPass, topSpeedMps: r.topSpeedMps, sectorTimesMs: sectors, ...state });
     out.set(r.sessionId, list);
   }
   return out;
@@ -154,7 +154,7 @@ export function toSeasonRow(r: RawRow, laps: RecordLap[]): SeasonRow {
     bestLapMs: f.bestLapMs,
     bestLapNumber: f.bestLapNumber,
     bestThreeMeanMs: f.bestThreeMeanMs,
-    topSpeedMs: f.topSpeedMs,
+    topSpeedMps: f.topSpeedMps,
     bestSectorsMs: f.bestSectorsMs,
   };
 }

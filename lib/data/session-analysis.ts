@@ -11,10 +11,10 @@ import { initModels, Bike, Finding, Lap, RaceEvent, RideSession, Track } from "@
 import type { SeriesLike } from "@/lib/laps/types";
 import { analyseSeries, type SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
 import { analysisBasis, buildAnalysisBase, PAGE_ROLES, seriesView } from "@/lib/analysis/analysis-base";
-import { precomputePageAnalyses } from "@/lib/analysis/page-analyses";
+import { precomputePageAnalyses } from "@/lib/analysis/precompute-pages";
 import { storedJsonStringify } from "@/lib/analysis/stored-json";
 import { guessTrack, medianPosition, trackCentre, trackGatesForAnalysis } from "./tracks";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import { loadAnalysisInputs } from "./analysis";
 
 /** Same event after a re-analysis: same kind and lap, start within this many seconds. */
@@ -83,7 +83,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
   const analysis = analyseSeries(
     series,
     track
-      ? { gates: trackGatesForAnalysis(track), pitSpeedLimitMs: track.pitSpeedLimitKmh != null ? track.pitSpeedLimitKmh / 3.6 : null, thresholds: track.thresholds }
+      ? { gates: trackGatesForAnalysis(track), pitSpeedLimitMps: track.pitSpeedLimitKmh != null ? track.pitSpeedLimitKmh / 3.6 : null, thresholds: track.thresholds }
       : null,
     bike
       ? {
@@ -119,7 +119,7 @@ export async function analyseSessionInTransaction(sequelize: Sequelize, t: Trans
         isInvalid: !!l.invalid,
         pitPass: l.pitPass,
         sectorTimesMs: l.sectorTimesMs as number[],
-        topSpeedMs: l.topSpeedMs,
+        topSpeedMps: l.topSpeedMps,
         stats: { ...l.stats, complete: l.complete, ...(l.suspect ? { suspect: true } : {}) },
       })),
       { transaction: t },

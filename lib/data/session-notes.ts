@@ -9,7 +9,7 @@ import { z } from "zod";
 import { initModels, Lap, Note, Rider } from "@/models";
 import { roleCan, type TeamContext } from "@/lib/auth/guard";
 import { HttpError, forbidden } from "@/lib/http/http-error";
-import { getSessionForViewer, type SessionDetail } from "./session-detail";
+import { getSessionForViewer, type SessionDetail } from "./session-for-viewer";
 import { userNames } from "./setup-sheets";
 
 export const NOTE_MAX_CHARS = 2000;

@@ -6,7 +6,7 @@ import "server-only";
 import { initModels, RaceEvent, Bike, Engine, Rider, Track, LogFile, RideSession } from "@/models";
 import { getSequelize } from "@/models/db";
 import type { TeamContext } from "@/lib/auth/guard";
-import { getSessionForViewer, type SessionDetail } from "./session-detail";
+import { getSessionForViewer, type SessionDetail } from "./session-for-viewer";
 import { listChannels } from "./samples";
 import type { ImportPreview } from "./imports";
 import { ROLE_LABEL, isChannelRole } from "@/lib/channels/roles";

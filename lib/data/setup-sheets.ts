@@ -10,9 +10,9 @@ import { z } from "zod";
 import { initModels, RideSession, SetupSheet, Bike } from "@/models";
 import { roleCan, type TeamContext } from "@/lib/auth/guard";
 import { HttpError, forbidden } from "@/lib/http/http-error";
-import { optionalNumber } from "./form-fields";
+import { optionalNumber } from "@/lib/forms/form-fields";
 import { jsonColumn } from "./json-column";
-import { getSessionForViewer } from "./session-detail";
+import { getSessionForViewer } from "./session-for-viewer";
 
 export type SetupGroup = "fork" | "shock" | "tyres" | "gearing" | "electronics" | "notes";
 

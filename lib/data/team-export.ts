@@ -140,7 +140,7 @@ export async function teamExportStream(ctx: TeamContext): Promise<{ fileName: st
         return [
           s.id, s.title, s.kind, s.startedAt ? new Date(s.startedAt).toISOString() : null, s.eventName, s.eventStartsOn, s.trackName, s.riderName, s.bikeName, s.engineSerial, s.conditions, s.status,
           round(s.durationS, 3), (laps.get(s.id) ?? []).length, round(f.bestLapMs == null ? null : f.bestLapMs / 1000, 3), round(f.bestThreeMeanMs == null ? null : f.bestThreeMeanMs / 1000, 3),
-          round(f.topSpeedMs, 3), round(eng?.hours, 4), round(eng?.distanceM, 1), Number(s.findingsOpen), Number(s.findingsAck), s.setupVersion, uploadPath(s),
+          round(f.topSpeedMps, 3), round(eng?.hours, 4), round(eng?.distanceM, 1), Number(s.findingsOpen), Number(s.findingsAck), s.setupVersion, uploadPath(s),
         ];
       }),
     ),
@@ -149,7 +149,7 @@ export async function teamExportStream(ctx: TeamContext): Promise<{ fileName: st
   const lapRows: unknown[][] = [];
   for (const s of sessions) {
     for (const l of laps.get(s.id) ?? []) {
-      lapRows.push([s.id, l.number, round(l.lapTimeMs / 1000, 3), null, null, round(l.topSpeedMs, 3), (l.sectorTimesMs ?? []).map((x) => round(x / 1000, 3)).join("|"), +l.isOutLap, +l.isInLap, +l.pitPass, +l.isInvalid]);
+      lapRows.push([s.id, l.number, round(l.lapTimeMs / 1000, 3), null, null, round(l.topSpeedMps, 3), (l.sectorTimesMs ?? []).map((x) => round(x / 1000, 3)).join("|"), +l.isOutLap, +l.isInLap, +l.pitPass, +l.isInvalid]);
     }
   }
   // Start time and distance of each lap (not in the season-record lap read).

@@ -6,7 +6,7 @@
 import type { Sequelize, Transaction } from "sequelize";
 import { initModels, Track, type TrackCorner, type TrackGates as ModelTrackGates } from "@/models";
 import type { SeriesLike } from "@/lib/laps/types";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 
 /** How far a session's median position may lie from a track's centre for the track to be guessed, m. */
 export const GUESS_TRACK_MAX_M = 5000;

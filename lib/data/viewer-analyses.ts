@@ -8,7 +8,7 @@ import "server-only";
 import { initModels } from "@/models";
 import type { TeamContext } from "@/lib/auth/guard";
 import { gearAnalysis, riderBrief, slipAnalysis, suspensionAnalysis, type GearAnalysis, type RiderBrief, type SlipAnalysis, type SuspensionAnalysis } from "./analysis";
-import { getSessionForViewer } from "./session-detail";
+import { getSessionForViewer } from "./session-for-viewer";
 
 /** Drive slip of a session the caller may see. */
 export async function slipForViewer(ctx: TeamContext, sessionId: number, opts: { lap?: number | null; lean?: boolean } = {}): Promise<SlipAnalysis> {

@@ -54,12 +54,12 @@ export function detectBrakeOnStraight(dc: DetectorContext): Finding[] {
   if (!p || !thr) return [];
   const { th } = dc;
   const lean = dc.series.channels.lean_angle;
-  const v = dc.groundSpeedMs;
+  const v = dc.groundSpeedMps;
   const rest = restingPressure(p, thr, dc.dtS);
   const relative = rest ? rest.medianPa + Math.max(th.brakeOnStraightRestMarginPa, REST_SPREAD_FACTOR * rest.spreadPa) : Infinity;
   const limit = Math.min(th.brakeOnStraightPressurePa, relative);
   const onStraight = (i: number) =>
-    (!lean || !Number.isFinite(lean[i]) || Math.abs(lean[i]) < th.brakeOnStraightMaxLeanDeg) && (!v || !Number.isFinite(v[i]) || v[i] > th.brakeOnStraightMinSpeedMs);
+    (!lean || !Number.isFinite(lean[i]) || Math.abs(lean[i]) < th.brakeOnStraightMaxLeanDeg) && (!v || !Number.isFinite(v[i]) || v[i] > th.brakeOnStraightMinSpeedMps);
   const runs = maskRuns(p.length, (i) => p[i] > limit && thr[i] > th.brakeOnStraightThrottlePct && onStraight(i), dc.series.timeS, {
     minDurationS: th.brakeOnStraightMinDurationS,
     mergeGapS: dc.dtS * 1.5,

@@ -1,5 +1,5 @@
 import type { DetectorContext } from "./detector-context";
-import { haversineM } from "./haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import { validFix } from "@/lib/laps/extract-fixes";
 import { kmh, makeFinding, onLap } from "./make-finding";
 import type { Finding } from "./types";
@@ -14,7 +14,7 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
   const lon = dc.series.channels.gps_lon;
   if (!lat || !lon) return [];
   const t = dc.series.timeS;
-  const wheel = dc.liveWheelMs;
+  const wheel = dc.liveWheelMps;
   const gpsSpeed = dc.series.channels.gps_speed;
   const { th } = dc;
   const out: Finding[] = [];
@@ -64,7 +64,7 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
     if (gapS > th.gpsDropoutS) {
       flushJump();
       // Moving: by wheel speed if there is one, else by the GPS speed at the fixes either side.
-      if (ref > th.gpsMovingSpeedMs) {
+      if (ref > th.gpsMovingSpeedMps) {
         out.push(
           makeFinding(dc, prev, i, {
             kind: "gps_dropout",
@@ -79,10 +79,10 @@ export function detectGpsFaults(dc: DetectorContext): Finding[] {
     } else if (gapS > 0) {
       const stepM = haversineM(lat[prev], lon[prev], lat[i], lon[i]);
       const implied = stepM / gapS;
-      const overAbs = implied > th.gpsJumpMaxSpeedMs;
+      const overAbs = implied > th.gpsJumpMaxSpeedMps;
       const overWheel = Number.isFinite(ref) && implied > th.gpsJumpWheelFactor * ref && stepM - ref * gapS > th.gpsJumpMinExcessM;
       if (overAbs || overWheel) {
-        const limit = overAbs ? th.gpsJumpMaxSpeedMs : th.gpsJumpWheelFactor * ref;
+        const limit = overAbs ? th.gpsJumpMaxSpeedMps : th.gpsJumpWheelFactor * ref;
         if (jumpStart < 0) {
           jumpStart = prev;
           jumpPeak = implied;

@@ -1,7 +1,7 @@
 import { holdForward, type DetectorContext } from "./detector-context";
 import { kmh, makeFinding, onLap } from "./make-finding";
 import { maskRuns } from "./mask-runs";
-import { pointInPolygon } from "./point-in-polygon";
+import { pointInPolygon } from "@/lib/geo/point-in-polygon";
 import type { Finding } from "./types";
 
 /** The caller's pit-lane test per sample: predicate, time ranges or a GPS polygon; null if none given. */
@@ -27,10 +27,10 @@ function pitLaneTest(dc: DetectorContext): ((i: number) => boolean) | null {
 
 /** Speed above the pit-lane limit while in the pit lane. */
 export function detectPitOverspeed(dc: DetectorContext): Finding[] {
-  const v = dc.groundSpeedMs;
+  const v = dc.groundSpeedMps;
   const inPit = pitLaneTest(dc);
   if (!v || !inPit) return [];
-  const limit = dc.ctx.track?.pitSpeedLimitMs ?? dc.th.pitSpeedLimitMs;
+  const limit = dc.ctx.track?.pitSpeedLimitMps ?? dc.th.pitSpeedLimitMps;
   const runs = maskRuns(v.length, (i) => v[i] > limit && inPit(i), dc.series.timeS, {
     minDurationS: dc.th.pitOverspeedMinDurationS,
     mergeGapS: 0.5,

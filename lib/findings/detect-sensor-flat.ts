@@ -37,11 +37,11 @@ function flatFinding(dc: DetectorContext, role: Exclude<ChannelRole, "time" | "o
 
 /** A channel stuck on one value while the bike moves faster than the set speed for longer than the set time. */
 export function detectSensorFlat(dc: DetectorContext): Finding[] {
-  const v = dc.groundSpeedMs;
+  const v = dc.groundSpeedMps;
   if (!v) return [];
   const t = dc.series.timeS;
   const n = t.length;
-  const minSpeedMs = dc.th.sensorFlatMinSpeedMs;
+  const minSpeedMps = dc.th.sensorFlatMinSpeedMps;
   const out: Finding[] = [];
   // A dead wheel sensor is one finding for the session, not a flat stretch per lap.
   for (const d of dc.deadWheels) {
@@ -57,7 +57,7 @@ export function detectSensorFlat(dc: DetectorContext): Finding[] {
         unit: "s",
         channel: d.role,
         message:
-          `${ROLE_LABEL[d.role]} reads ${Number.isFinite(w[first]) ? Number((w[first] * 3.6).toFixed(1)) : "nothing"} km/h for ${Math.round(d.deadShare * 100)} % of the ${d.movingS.toFixed(0)} s the ${d.referenceName} says the bike moved (up to ${(d.referenceMaxMs * 3.6).toFixed(0)} km/h): ` +
+          `${ROLE_LABEL[d.role]} reads ${Number.isFinite(w[first]) ? Number((w[first] * 3.6).toFixed(1)) : "nothing"} km/h for ${Math.round(d.deadShare * 100)} % of the ${d.movingS.toFixed(0)} s the ${d.referenceName} says the bike moved (up to ${(d.referenceMaxMps * 3.6).toFixed(0)} km/h): ` +
           `the sensor or its wiring is likely dead. Distance and ground speed use the ${d.role === "speed_front" ? "GPS or the rear wheel" : "front wheel or GPS"} instead.`,
       }),
     );
@@ -73,7 +73,7 @@ export function detectSensorFlat(dc: DetectorContext): Finding[] {
     let hi = 0;
     for (let i = 0; i < n; i++) {
       const xi = x[i];
-      if (!(v[i] > minSpeedMs) || !Number.isFinite(xi)) {
+      if (!(v[i] > minSpeedMps) || !Number.isFinite(xi)) {
         if (start >= 0) {
           const f = flatFinding(dc, role, start, i - 1 >= 0 ? i - 1 : 0, lo, minS);
           if (f) out.push(f);

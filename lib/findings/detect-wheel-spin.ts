@@ -14,8 +14,8 @@ export function detectWheelSpin(dc: DetectorContext): Finding[] {
     targetSlip: th.wheelSpinTargetSlip,
     minThrottlePct: th.wheelSpinMinThrottlePct,
     minDurationS: th.wheelSpinMinDurationS,
-    frontSpeedMs: c.speed_front,
-    wheelieDecelMs2: th.wheelieDecelMs2,
+    frontSpeedMps: c.speed_front,
+    wheelieDecelMps2: th.wheelieDecelMps2,
   });
   return events.map((e) =>
     makeFinding(dc, e.startIndex, e.endIndex, {

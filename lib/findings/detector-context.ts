@@ -11,11 +11,11 @@ export interface DetectorContext {
   /** Median sample interval of the master clock (s). */
   dtS: number;
   /** Ground speed per sample (m/s): front wheel, else rear wheel, else GPS speed held between fixes — a dead wheel sensor skipped; undefined if none. */
-  groundSpeedMs: ArrayLike<number> | undefined;
+  groundSpeedMps: ArrayLike<number> | undefined;
   /** A wheel whose sensor reads (near) nothing while the bike moves; ground speed comes from elsewhere. */
   deadWheels: WheelSensorCheck[];
   /** The wheel-speed channel that works (front, else rear), for GPS-jump checks; undefined if none. */
-  liveWheelMs: ArrayLike<number> | undefined;
+  liveWheelMps: ArrayLike<number> | undefined;
   lapOf: (timeS: number) => number | null;
 }
 
@@ -63,7 +63,7 @@ export function buildDetectorContext(series: SeriesLike, ctx: FindingsContext): 
   const front = checkWheelSensor(series, "speed_front");
   const rear = checkWheelSensor(series, "speed_rear");
   const deadWheels = [front, rear].filter((x): x is WheelSensorCheck => !!x?.dead);
-  const liveWheelMs = c.speed_front && !front?.dead ? c.speed_front : c.speed_rear && !rear?.dead ? c.speed_rear : undefined;
-  const groundSpeedMs = liveWheelMs ?? (c.gps_speed ? holdForward(c.gps_speed) : undefined);
-  return { series, ctx, th, dtS: medianStep(series.timeS), groundSpeedMs, deadWheels, liveWheelMs, lapOf: makeLapOf(ctx.laps) };
+  const liveWheelMps = c.speed_front && !front?.dead ? c.speed_front : c.speed_rear && !rear?.dead ? c.speed_rear : undefined;
+  const groundSpeedMps = liveWheelMps ?? (c.gps_speed ? holdForward(c.gps_speed) : undefined);
+  return { series, ctx, th, dtS: medianStep(series.timeS), groundSpeedMps, deadWheels, liveWheelMps, lapOf: makeLapOf(ctx.laps) };
 }

@@ -50,7 +50,7 @@ export const DEFAULT_THRESHOLDS = {
     rationale: "A straight is ridden upright; trail braking into a corner at lean is meant.",
     source: "Lapbench default",
   },
-  brakeOnStraightMinSpeedMs: {
+  brakeOnStraightMinSpeedMps: {
     value: 100 / 3.6,
     unit: "m/s",
     rationale: "100 km/h: slower than that the bike is in a slow corner or the pit lane, not on a straight.",
@@ -62,7 +62,7 @@ export const DEFAULT_THRESHOLDS = {
     rationale: "Ignores a single-sample spike from a noisy pressure sensor.",
     source: "Lapbench default",
   },
-  pitSpeedLimitMs: {
+  pitSpeedLimitMps: {
     value: 40 / 3.6,
     unit: "m/s",
     rationale: "40 km/h, the lower and safer of the usual figures (40 km/h in some national series, 60 km/h in others) — set the track's own.",
@@ -86,7 +86,7 @@ export const DEFAULT_THRESHOLDS = {
     rationale: "Short slip peaks are normal on a drive; only sustained spin is worth a look.",
     source: "Lapbench default",
   },
-  wheelieDecelMs2: {
+  wheelieDecelMps2: {
     value: 5,
     unit: "m/s²",
     rationale: "A front wheel slowing faster than 5 m/s² with the throttle open is in the air (a wheelie), not braking: slip measured against it is not spin.",
@@ -110,7 +110,7 @@ export const DEFAULT_THRESHOLDS = {
     rationale: "One hit that rings twice within 0.2 s is one event.",
     source: "Lapbench default",
   },
-  sensorFlatMinSpeedMs: {
+  sensorFlatMinSpeedMps: {
     value: 20,
     unit: "m/s",
     rationale: "Judged above 72 km/h only, faster than any pit lane, so riding the pit limiter at a steady throttle does not count.",
@@ -134,13 +134,13 @@ export const DEFAULT_THRESHOLDS = {
     rationale: "More than 1 s between fixes while moving is 10–25 missed fixes at usual logger rates.",
     source: "Lapbench default",
   },
-  gpsMovingSpeedMs: {
+  gpsMovingSpeedMps: {
     value: 5,
     unit: "m/s",
     rationale: "A dropout only matters while the bike moves.",
     source: "Lapbench default",
   },
-  gpsJumpMaxSpeedMs: {
+  gpsJumpMaxSpeedMps: {
     value: 100,
     unit: "m/s",
     rationale: "360 km/h is above the top speed of the bikes Lapbench is built for; faster than that between two fixes, the fix jumped.",

@@ -52,7 +52,7 @@ export interface LatLon {
 
 export interface TrackInfo {
   /** The track's pit-lane limit (m/s); overrides the default threshold. */
-  pitSpeedLimitMs?: number;
+  pitSpeedLimitMps?: number;
   corners?: { name: string; distanceM: number }[];
   /** Where the pit lane is, by one of: a predicate on sample index, time ranges, or a polygon of GPS points. */
   inPitLane?: (i: number) => boolean;

@@ -4,7 +4,7 @@ export interface GearOptions {
   /** Relative mismatch allowed between measured and nominal overall ratio. Default 0.04 (our setting). */
   tolerance?: number;
   /** Below this rear speed the ratio is meaningless; gear 0 (m/s). Default 2. */
-  minSpeedMs?: number;
+  minSpeedMps?: number;
 }
 
 /**
@@ -14,21 +14,21 @@ export interface GearOptions {
  */
 export function gearFromRatios(
   rpm: ArrayLike<number>,
-  rearSpeedMs: ArrayLike<number>,
+  rearSpeedMps: ArrayLike<number>,
   bike: Drivetrain,
   opts: GearOptions = {},
 ): Uint8Array {
   const tolerance = opts.tolerance ?? 0.04;
-  const minSpeedMs = opts.minSpeedMs ?? 2;
+  const minSpeedMps = opts.minSpeedMps ?? 2;
   const ratios = overallRatios(bike);
-  const n = Math.min(rpm.length, rearSpeedMs.length);
+  const n = Math.min(rpm.length, rearSpeedMps.length);
   const out = new Uint8Array(n);
-  const wheelRpmPerMs = 60 / bike.rearCircumferenceM;
+  const wheelRpmPerMps = 60 / bike.rearCircumferenceM;
   for (let i = 0; i < n; i++) {
-    const v = rearSpeedMs[i];
+    const v = rearSpeedMps[i];
     const r = rpm[i];
-    if (!(v >= minSpeedMs) || !(r > 0)) continue;
-    const measured = r / (v * wheelRpmPerMs);
+    if (!(v >= minSpeedMps) || !(r > 0)) continue;
+    const measured = r / (v * wheelRpmPerMps);
     let best = -1;
     let bestErr = Infinity;
     for (let g = 0; g < ratios.length; g++) {

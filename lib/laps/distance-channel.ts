@@ -41,19 +41,19 @@ function interpAt(ts: Float64Array, ys: Float64Array, t: number): number {
  * between (a wheel channel slower than the clock, or a short dropout) get the partial area.
  * Before the first finite sample the distance is 0; after the last it stays constant.
  */
-function integrateSpeed(timeS: Float64Array, speedMs: NumericArray): Float64Array {
+function integrateSpeed(timeS: Float64Array, speedMps: NumericArray): Float64Array {
   const n = timeS.length;
   const cum = new Float64Array(n);
   let j = -1; // last finite sample
   for (let i = 0; i < n; i++) {
-    const v = speedMs[i];
+    const v = speedMps[i];
     if (!Number.isFinite(v)) continue;
     if (j < 0) {
       j = i;
       continue; // cum[0..i] stay 0
     }
     const tj = timeS[j];
-    const vj = speedMs[j];
+    const vj = speedMps[j];
     const dt = timeS[i] - tj;
     for (let k = j + 1; k <= i; k++) {
       const tau = timeS[k] - tj;
@@ -102,7 +102,7 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
 
   // A dead front sensor (0 while the bike moves) is skipped: GPS, else the rear wheel, instead.
   const live = distanceWheel(series, nf > 1);
-  const wheel = live?.speedMs;
+  const wheel = live?.speedMps;
   const nLaps = laps.length;
   const lapStartDistanceM = new Float64Array(nLaps);
   const lapLengthM = new Float64Array(nLaps);

@@ -8,7 +8,7 @@ export interface SeriesFixes extends GpsFixes {
   /** Index into series.timeS of each fix. */
   sampleIndex: Int32Array;
   /** GPS speed at each fix in m/s, NaN where the log has none. */
-  speedMs: Float64Array;
+  speedMps: Float64Array;
 }
 
 /** A usable position: finite, within ±90° / ±180°, and not the (0, 0) a receiver writes without a fix. */
@@ -34,11 +34,11 @@ export function extractFixes(series: SeriesLike): SeriesFixes {
     latDeg: new Float64Array(n),
     lonDeg: new Float64Array(n),
     sampleIndex: new Int32Array(n),
-    speedMs: new Float64Array(n),
+    speedMps: new Float64Array(n),
   };
   if (!lat || !lon) return out;
   // The output arrays as locals: the loop runs once per sample of the session.
-  const { timeS, latDeg, lonDeg, sampleIndex, speedMs } = out;
+  const { timeS, latDeg, lonDeg, sampleIndex, speedMps } = out;
   let k = 0;
   for (let i = 0; i < t.length; i++) {
     const la = lat[i];
@@ -48,7 +48,7 @@ export function extractFixes(series: SeriesLike): SeriesFixes {
     latDeg[k] = la;
     lonDeg[k] = lo;
     sampleIndex[k] = i;
-    speedMs[k] = spd ? spd[i] : NaN;
+    speedMps[k] = spd ? spd[i] : NaN;
     k++;
   }
   return out;

@@ -6,8 +6,8 @@ type Role = keyof SeriesLike["channels"];
 
 export interface LapStats {
   /** Highest and lowest speed in the lap, m/s; NaN when the log has no speed channel. */
-  topSpeedMs: number;
-  minSpeedMs: number;
+  topSpeedMps: number;
+  minSpeedMps: number;
   /** Which channel the speeds came from: the front wheel (ground speed; the rear spins), else GPS. */
   speedSource: "speed_front" | "gps_speed" | null;
   /** Summary of each requested channel over the lap, in the channel's SI unit. */
@@ -25,17 +25,17 @@ export function lapStats(series: SeriesLike, lap: Lap, channels: readonly Role[]
   if (to < series.timeS.length && series.timeS[to] === lap.endTimeS) to++;
 
   const speedSource = series.channels.speed_front ? "speed_front" : series.channels.gps_speed ? "gps_speed" : null;
-  let topSpeedMs = NaN;
-  let minSpeedMs = NaN;
+  let topSpeedMps = NaN;
+  let minSpeedMps = NaN;
   if (speedSource) {
     const s = summarizeFinite(series.channels[speedSource]!, from, to);
-    topSpeedMs = s.max;
-    minSpeedMs = s.min;
+    topSpeedMps = s.max;
+    minSpeedMps = s.min;
   }
   const out: LapStats["channels"] = {};
   for (const role of channels) {
     const values = series.channels[role];
     if (values) out[role] = summarizeFinite(values, from, to);
   }
-  return { topSpeedMs, minSpeedMs, speedSource, channels: out };
+  return { topSpeedMps, minSpeedMps, speedSource, channels: out };
 }

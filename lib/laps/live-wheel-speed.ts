@@ -17,7 +17,7 @@ export interface WheelSensorCheck {
   movingS: number;
   deadShare: number;
   /** The reference's top speed meanwhile (m/s), for the message. */
-  referenceMaxMs: number;
+  referenceMaxMps: number;
   referenceName: "GPS" | "rear wheel" | "front wheel";
 }
 
@@ -59,25 +59,25 @@ export function checkWheelSensor(series: SeriesLike, role: "speed_front" | "spee
   }
   if (moving < MIN_MOVING_S) return null;
   const share = nothing / moving;
-  return { role, dead: share >= DEAD_SHARE, movingS: moving, deadShare: share, referenceMaxMs: refMax, referenceName };
+  return { role, dead: share >= DEAD_SHARE, movingS: moving, deadShare: share, referenceMaxMps: refMax, referenceName };
 }
 
 /** The ground speed to use and where it came from: front wheel, else rear wheel, else GPS — skipping a dead wheel. */
-export function liveGroundSpeed(series: SeriesLike): { speedMs: NumericArray | Float64Array | undefined; source: "speed_front" | "speed_rear" | "gps_speed" | "none" } {
+export function liveGroundSpeed(series: SeriesLike): { speedMps: NumericArray | Float64Array | undefined; source: "speed_front" | "speed_rear" | "gps_speed" | "none" } {
   const c = series.channels;
-  if (c.speed_front && !checkWheelSensor(series, "speed_front")?.dead) return { speedMs: c.speed_front, source: "speed_front" };
-  if (c.speed_rear && !checkWheelSensor(series, "speed_rear")?.dead) return { speedMs: c.speed_rear, source: "speed_rear" };
-  if (c.gps_speed) return { speedMs: held(c.gps_speed), source: "gps_speed" };
-  return { speedMs: undefined, source: "none" };
+  if (c.speed_front && !checkWheelSensor(series, "speed_front")?.dead) return { speedMps: c.speed_front, source: "speed_front" };
+  if (c.speed_rear && !checkWheelSensor(series, "speed_rear")?.dead) return { speedMps: c.speed_rear, source: "speed_rear" };
+  if (c.gps_speed) return { speedMps: held(c.gps_speed), source: "gps_speed" };
+  return { speedMps: undefined, source: "none" };
 }
 
 /**
  * The wheel to integrate for distance: the front (the free-rolling ground reference) unless it is
  * dead; then GPS when there are fixes (`hasGps`), else the rear wheel unless it is dead too.
  */
-export function distanceWheel(series: SeriesLike, hasGps: boolean): { speedMs: NumericArray; role: "speed_front" | "speed_rear" } | undefined {
+export function distanceWheel(series: SeriesLike, hasGps: boolean): { speedMps: NumericArray; role: "speed_front" | "speed_rear" } | undefined {
   const c = series.channels;
-  if (c.speed_front && !checkWheelSensor(series, "speed_front")?.dead) return { speedMs: c.speed_front, role: "speed_front" };
-  if (c.speed_front && !hasGps && c.speed_rear && !checkWheelSensor(series, "speed_rear")?.dead) return { speedMs: c.speed_rear, role: "speed_rear" };
+  if (c.speed_front && !checkWheelSensor(series, "speed_front")?.dead) return { speedMps: c.speed_front, role: "speed_front" };
+  if (c.speed_front && !hasGps && c.speed_rear && !checkWheelSensor(series, "speed_rear")?.dead) return { speedMps: c.speed_rear, role: "speed_rear" };
   return undefined;
 }

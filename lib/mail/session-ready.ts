@@ -61,8 +61,8 @@ export async function notifySessionReady(sequelize: Sequelize, sessionId: number
     );
     if (!s || s.status !== "ready") return out;
     const [laps, findings, parts, people] = await Promise.all([
-      sequelize.query<{ number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMs: number | null; stats: unknown }>(
-        "SELECT number, lap_time_ms AS lapTimeMs, is_out_lap AS isOutLap, is_in_lap AS isInLap, is_invalid AS isInvalid, pit_pass AS pitPass, top_speed_ms AS topSpeedMs, stats FROM laps WHERE session_id = ?",
+      sequelize.query<{ number: number; lapTimeMs: number; isOutLap: number; isInLap: number; isInvalid: number; pitPass: number; topSpeedMps: number | null; stats: unknown }>(
+        "SELECT number, lap_time_ms AS lapTimeMs, is_out_lap AS isOutLap, is_in_lap AS isInLap, is_invalid AS isInvalid, pit_pass AS pitPass, top_speed_mps AS topSpeedMps, stats FROM laps WHERE session_id = ?",
         { replacements: [sessionId], type: QueryTypes.SELECT },
       ),
       sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM findings WHERE session_id = ?", { replacements: [sessionId], type: QueryTypes.SELECT }),
@@ -90,7 +90,7 @@ export async function notifySessionReady(sequelize: Sequelize, sessionId: number
     const common: Omit<SessionReadyMailProps, "audience" | "url" | "briefLines"> = {
       teamName: s.teamName, sessionTitle: title, riderName: s.riderName, bikeName: s.bikeName,
       bestLap: f.bestLapMs == null ? null : formatLapTime(f.bestLapMs), bestThreeMean: f.bestThreeMeanMs == null ? null : formatLapTime(f.bestThreeMeanMs),
-      flyingLaps: f.flyingLapCount, topSpeed: f.topSpeedMs == null ? null : `${(f.topSpeedMs * 3.6).toFixed(1)} km/h`,
+      flyingLaps: f.flyingLapCount, topSpeed: f.topSpeedMps == null ? null : `${(f.topSpeedMps * 3.6).toFixed(1)} km/h`,
       findingsCount: Number(findings[0]?.n ?? 0), settingsUrl: `${base}/settings`,
     };
     const lines = briefLines(parts[0]?.data);

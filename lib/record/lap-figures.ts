@@ -14,7 +14,7 @@ export interface RecordLap {
   isInLap: boolean;
   isInvalid: boolean;
   pitPass: boolean;
-  topSpeedMs: number | null;
+  topSpeedMps: number | null;
   sectorTimesMs?: number[] | null;
   /** From the row's stats (storedLapState); absent on rows written before they were kept. */
   complete?: boolean;
@@ -28,7 +28,7 @@ export interface LapFigures {
   /** Mean of the three quickest flying laps; null with fewer than three. */
   bestThreeMeanMs: number | null;
   /** Highest lap top speed over every lap of the session (m/s); null when none was recorded. */
-  topSpeedMs: number | null;
+  topSpeedMps: number | null;
   /** Quickest time of each sector over the flying laps (ms), when the track has sector gates. */
   bestSectorsMs: number[] | null;
 }
@@ -41,14 +41,14 @@ export function lapFigures(laps: readonly RecordLap[]): LapFigures {
   });
   const sorted = [...flying].sort((a, b) => a.lapTimeMs - b.lapTimeMs || a.number - b.number);
   let top: number | null = null;
-  for (const l of laps) if (l.topSpeedMs != null && Number.isFinite(l.topSpeedMs) && (top === null || l.topSpeedMs > top)) top = l.topSpeedMs;
+  for (const l of laps) if (l.topSpeedMps != null && Number.isFinite(l.topSpeedMps) && (top === null || l.topSpeedMps > top)) top = l.topSpeedMps;
   const best = sorted[0] ?? null;
   return {
     flyingLapCount: flying.length,
     bestLapMs: best?.lapTimeMs ?? null,
     bestLapNumber: best?.number ?? null,
     bestThreeMeanMs: sorted.length >= 3 ? (sorted[0].lapTimeMs + sorted[1].lapTimeMs + sorted[2].lapTimeMs) / 3 : null,
-    topSpeedMs: top,
+    topSpeedMps: top,
     bestSectorsMs: bestSectors(flying),
   };
 }

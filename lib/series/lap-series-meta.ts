@@ -56,14 +56,14 @@ export interface LapSeriesCorner {
   /** Per lap (same order as `laps`), null where the lap has no speed channel. */
   laps: ({
     /** Speed where the stretch begins, m/s. */
-    entrySpeedMs: number;
+    entrySpeedMps: number;
     /** Where front brake pressure first passed the braking threshold, m from the lap start (null: no braking or no brake channel). */
     brakingPointM: number | null;
     /** Lowest speed in the stretch, m/s, and where, m. */
-    minSpeedMs: number;
+    minSpeedMps: number;
     apexM: number;
     /** Speed where the stretch ends, m/s. */
-    exitSpeedMs: number;
+    exitSpeedMps: number;
     /** Time through the stretch, s. */
     timeS: number;
     /** Time gained on the reference lap in this stretch, s (+ = gained; 0 for the reference). */

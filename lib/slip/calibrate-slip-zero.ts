@@ -2,13 +2,13 @@ import type { SeriesLike } from "@/lib/laps/types";
 
 export interface SlipZeroOptions {
   /** Only running faster than this counts (m/s). Default 60 km/h. */
-  minSpeedMs?: number;
+  minSpeedMps?: number;
   /** Upright running only: |lean| below this (deg). Default 5°. */
   maxLeanDeg?: number;
   /** Throttle must stay within ± this (percentage points) over the window. Default 3. */
   maxThrottleChangePct?: number;
   /** Low acceleration only: |dv/dt| of the front wheel below this (m/s²). Default 1. */
-  maxAccelMs2?: number;
+  maxAccelMps2?: number;
   /** Half-width of the window used to judge "steady" (s). Default 0.25. */
   halfWindowS?: number;
   /** Fewer qualifying samples than this → no calibration (ratio 1). Default 20. */
@@ -42,10 +42,10 @@ export interface SlipZeroResult {
  * Channels that are missing (throttle, lean) simply drop their condition.
  */
 export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}): SlipZeroResult {
-  const minSpeedMs = opts.minSpeedMs ?? 60 / 3.6;
+  const minSpeedMps = opts.minSpeedMps ?? 60 / 3.6;
   const maxLeanDeg = opts.maxLeanDeg ?? 5;
   const maxThrottleChangePct = opts.maxThrottleChangePct ?? 3;
-  const maxAccelMs2 = opts.maxAccelMs2 ?? 1;
+  const maxAccelMps2 = opts.maxAccelMps2 ?? 1;
   const halfWindowS = opts.halfWindowS ?? 0.25;
   const minSamples = opts.minSamples ?? 20;
   const maxThrottlePct = opts.maxThrottlePct ?? 80;
@@ -72,11 +72,11 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
     while (hi + 1 < n && t[hi + 1] - t[i] <= halfWindowS) hi++;
     const vf = front[i];
     const vr = rear[i];
-    if (!(vf >= minSpeedMs) || !Number.isFinite(vr)) continue;
+    if (!(vf >= minSpeedMps) || !Number.isFinite(vr)) continue;
     if (lean && !(Math.abs(lean[i]) < maxLeanDeg)) continue;
     if (hi === lo) continue;
     const accel = (front[hi] - front[lo]) / (t[hi] - t[lo]);
-    if (!(Math.abs(accel) <= maxAccelMs2)) continue;
+    if (!(Math.abs(accel) <= maxAccelMps2)) continue;
     if (throttle) {
       const th = throttle[i];
       if (!(th < maxThrottlePct)) continue;

@@ -16,7 +16,7 @@ export interface LeanCorrection {
 
 export interface DriveSlipOptions {
   /** Below this front speed the slip is NaN (m/s). Default 30 km/h (Lapbench default: lower down, a small wheel-speed error is a large slip). */
-  minFrontSpeedMs?: number;
+  minFrontSpeedMps?: number;
   /** Rear/front speed ratio that means zero slip. When omitted it is found by calibrateSlipZero. */
   zeroRatio?: number;
   /** Set false to skip the automatic zero (ratio 1). Default true. */
@@ -42,7 +42,7 @@ export function driveSlip(series: SeriesLike, opts: DriveSlipOptions = {}): Floa
   const rear = series.channels.speed_rear;
   if (!front || !rear) return out;
 
-  const minFrontSpeedMs = opts.minFrontSpeedMs ?? 30 / 3.6;
+  const minFrontSpeedMps = opts.minFrontSpeedMps ?? 30 / 3.6;
   const zeroRatio =
     opts.zeroRatio ?? (opts.calibrate === false ? 1 : calibrateSlipZero(series, opts.calibration).ratio);
   const leanCh = opts.lean ? series.channels.lean_angle : undefined;
@@ -50,7 +50,7 @@ export function driveSlip(series: SeriesLike, opts: DriveSlipOptions = {}): Floa
 
   for (let i = 0; i < n; i++) {
     const vfRaw = front[i];
-    if (!(vfRaw >= minFrontSpeedMs)) continue;
+    if (!(vfRaw >= minFrontSpeedMps)) continue;
     let vf = vfRaw;
     if (!Number.isFinite(rear[i])) continue;
     let vr = rear[i] / zeroRatio;

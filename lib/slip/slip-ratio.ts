@@ -8,7 +8,7 @@
  * rear brakes, −1 for a locked rear wheel. (Some traction literature divides by the wheel speed
  * instead; we do not.) Returns NaN when the front speed is not positive.
  */
-export function slipRatio(vRearMs: number, vFrontMs: number): number {
-  if (!(vFrontMs > 0)) return NaN;
-  return (vRearMs - vFrontMs) / vFrontMs;
+export function slipRatio(vRearMps: number, vFrontMps: number): number {
+  if (!(vFrontMps > 0)) return NaN;
+  return (vRearMps - vFrontMps) / vFrontMps;
 }

@@ -11,12 +11,12 @@ export interface SpinEventOptions {
   /** Shorter excursions are ignored (s). Default DEFAULT_THRESHOLDS.wheelSpinMinDurationS (0.3), the same for the page and the finding. */
   minDurationS?: number;
   /**
-   * Wheelie guard: the front wheel speed. Where it slows faster than `wheelieDecelMs2` with the
+   * Wheelie guard: the front wheel speed. Where it slows faster than `wheelieDecelMps2` with the
    * throttle open, the front is in the air (it is not braking), so the slip against it is not spin.
    */
-  frontSpeedMs?: ArrayLike<number>;
-  /** Default DEFAULT_THRESHOLDS.wheelieDecelMs2 (5 m/s², Lapbench default). */
-  wheelieDecelMs2?: number;
+  frontSpeedMps?: ArrayLike<number>;
+  /** Default DEFAULT_THRESHOLDS.wheelieDecelMps2 (5 m/s², Lapbench default). */
+  wheelieDecelMps2?: number;
   /** Excursions separated by less than this are one event (s). Default 0.1. */
   mergeGapS?: number;
 }
@@ -46,8 +46,8 @@ export function spinEvents(
   const targetSlip = opts.targetSlip ?? 0.08;
   const minThrottlePct = opts.minThrottlePct ?? 20;
   const minDurationS = opts.minDurationS ?? DEFAULT_THRESHOLDS.wheelSpinMinDurationS.value;
-  const front = opts.frontSpeedMs;
-  const wheelieDecel = opts.wheelieDecelMs2 ?? DEFAULT_THRESHOLDS.wheelieDecelMs2.value;
+  const front = opts.frontSpeedMps;
+  const wheelieDecel = opts.wheelieDecelMps2 ?? DEFAULT_THRESHOLDS.wheelieDecelMps2.value;
   /** Front deceleration over ±0.1 s around sample i (m/s², positive when slowing). */
   let lo = 0;
   let hi = 0;

@@ -80,11 +80,11 @@ export interface SuspensionUseOptions {
   /** Number of position bins across 0–100 % of stroke. Default 20. */
   bins?: number;
   /** Velocity bin width (m/s). Default 0.025. */
-  velocityBinWidthMs?: number;
+  velocityBinWidthMps?: number;
   /** Velocity histogram covers ± this; faster samples go in the outer bins (m/s). Default 0.5. */
-  velocityRangeMs?: number;
+  velocityRangeMps?: number;
   /** Ground speed (m/s) for sag; without it sag is not reported. */
-  speedMs?: Float32Array;
+  speedMps?: Float32Array;
   /** Lean angle (deg) to keep rolling sag to upright running. */
   leanDeg?: Float32Array;
   bottoming?: BottomingOptions;
@@ -107,7 +107,7 @@ export interface SuspensionUse {
   /** Share of time in each damping quadrant (%; zero velocity counts as compression). */
   split: { boundaryMs: number; compressionLowPct: number; compressionHighPct: number; reboundLowPct: number; reboundHighPct: number };
   /** The velocity channel itself (m/s). */
-  velocityMs: Float32Array;
+  velocityMps: Float32Array;
   /**
    * Sag, two ways: `steadySpeedM` is the median travel while running upright at a steady speed
    * above 10 m/s (|dv/dt| < 0.5 m/s², |lean| < 5°) — rolling sag; `stoppedM` is the median
@@ -136,12 +136,12 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
   const windowMs = opts.velocityWindowMs ?? DEFAULT_VELOCITY_WINDOW_MS;
   const order = opts.velocityOrder ?? 2;
   const bins = opts.bins ?? 20;
-  const vWidth = opts.velocityBinWidthMs ?? 0.025;
-  const vRange = opts.velocityRangeMs ?? 0.5;
+  const vWidth = opts.velocityBinWidthMps ?? 0.025;
+  const vRange = opts.velocityRangeMps ?? 0.5;
   const dtS = n > 1 ? (timeS[n - 1] - timeS[0]) / (n - 1) : 1;
 
   const own = channelVelocity(travelM, timeS, windowMs, order);
-  const velocityMs = own.velocity;
+  const velocityMps = own.velocity;
 
   const posEdges = new Float64Array(bins + 1);
   for (let b = 0; b <= bins; b++) posEdges[b] = (100 * b) / bins;
@@ -163,7 +163,7 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
       const b = Math.min(bins - 1, Math.max(0, Math.floor((pct / 100) * bins)));
       posCounts[b]++;
     }
-    const v = velocityMs[i];
+    const v = velocityMps[i];
     if (Number.isFinite(v)) {
       vCount++;
       const b = Math.min(vBins - 1, Math.max(0, Math.floor((v + vRange) / vWidth)));
@@ -183,7 +183,7 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
   // Sag.
   let steadySpeedM: number | null = null;
   let stoppedM: number | null = null;
-  const speed = opts.speedMs;
+  const speed = opts.speedMps;
   if (speed) {
     // The sag samples are travel samples as they are (Float32 from the channel): buffers of the
     // same type hold them exactly, and grow as needed instead of two doubles per sample of the
@@ -235,7 +235,7 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
       reboundLowPct: pctOf(rLow),
       reboundHighPct: pctOf(rHigh),
     },
-    velocityMs,
+    velocityMps,
     sag: { steadySpeedM, stoppedM },
     maxTravelM: pCount ? maxTravelM : NaN,
     maxTravelPct: pCount ? (100 * maxTravelM) / strokeM : NaN,

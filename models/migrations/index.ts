@@ -11,6 +11,7 @@ import * as uploadGrants from "./0020-upload-grants";
 import * as teamRecord from "./0030-team-record";
 import * as analysisVersion from "./0040-analysis-version";
 import * as bikeFrontCrownTrackZone from "./0015-bike-front-crown-track-zone";
+import * as topSpeedMps from "./0055-top-speed-mps";
 
 export interface Migration {
   name: string;
@@ -27,4 +28,5 @@ export const migrations: Migration[] = [
   { name: "0020-upload-grants", ...uploadGrants },
   { name: "0030-team-record", ...teamRecord },
   { name: "0040-analysis-version", ...analysisVersion },
+  { name: "0055-top-speed-mps", ...topSpeedMps },
 ];

@@ -107,7 +107,7 @@ async function gpsSessionFor(actor: Actor): Promise<{ id: string; lap: string }>
 /** A fresh session of team A: the rider's own for "rider-own", another rider's for everyone else. */
 async function sessionFor(actor: Actor): Promise<number> {
   const s = await newSession({ riderId: actor === "rider-own" ? riderOwn : riderOther });
-  await Lap.create({ sessionId: s.id, number: 1, startTimeS: 0, endTimeS: 90, lapTimeMs: 90_000, distanceM: 3000, sectorTimesMs: null, topSpeedMs: null, stats: null });
+  await Lap.create({ sessionId: s.id, number: 1, startTimeS: 0, endTimeS: 90, lapTimeMs: 90_000, distanceM: 3000, sectorTimesMs: null, topSpeedMps: null, stats: null });
   return s.id;
 }
 

@@ -14,7 +14,7 @@ import { confirmMapping } from "@/lib/data/imports";
 import { ensureTrack, guessTrack } from "@/lib/data/tracks";
 import { reanalyseSession, reanalyseTrackSessions } from "@/lib/data/reanalyse";
 import { CAUTION_TEXT } from "@/lib/findings/caution";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import type { Mapping } from "@/lib/ingest/mapping";
 import type { SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
 import { ingestNow } from "@/workers/ingest/ingest-now";
@@ -35,7 +35,7 @@ interface TruthLap {
   lapTimeMs: number;
   sectorTimesMs: number[] | null;
   distanceM: number;
-  topSpeedMs: number;
+  topSpeedMps: number;
 }
 interface TruthEvent {
   kind: string;
@@ -144,7 +144,7 @@ describe("three-lap sample logs: laps, sectors and findings at ingest", () => {
     for (const tl of truth.laps.filter((l) => l.kind === "flying")) {
       expect(Math.abs(laps[tl.number].distanceM! - tl.distanceM) / tl.distanceM, `lap ${tl.number + 1} distance`).toBeLessThan(0.002);
       // Front wheel speed carries the model's small front slip and 0.02 m/s noise: within 0.2 %.
-      expect(Math.abs(laps[tl.number].topSpeedMs! - tl.topSpeedMs) / tl.topSpeedMs).toBeLessThan(0.002);
+      expect(Math.abs(laps[tl.number].topSpeedMps! - tl.topSpeedMps) / tl.topSpeedMps).toBeLessThan(0.002);
     }
 
     const summary = ready!.summary as SessionAnalysisSummary & { preview?: { format: string } };

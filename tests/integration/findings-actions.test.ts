@@ -142,7 +142,7 @@ describe("thresholds per bike and track", () => {
     // The track row's own limit (60 km/h) wins over a threshold, so clear it like the Tracks screen would.
     const { Track } = await import("@/models");
     await Track.update({ pitSpeedLimitKmh: null }, { where: { id: trackId } });
-    const res = await saveTrackThresholds(ctx.owner!, trackId, { pitSpeedLimitMs: 120 / 3.6, gpsDropoutS: 2 });
+    const res = await saveTrackThresholds(ctx.owner!, trackId, { pitSpeedLimitMps: 120 / 3.6, gpsDropoutS: 2 });
     expect(res.reanalysed).toBe(1);
     expect(await Finding.count({ where: { sessionId, kind: "pit_overspeed" } })).toBe(0);
   });

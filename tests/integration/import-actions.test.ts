@@ -1,6 +1,6 @@
 /**
  * What the import screen and the session page's actions do, through the lib functions they call
- * (lib/data/session-details.ts, session-overview.ts, session-list.ts) against the real MariaDB and
+ * (lib/data/session-edit.ts, session-overview.ts, session-list.ts) against the real MariaDB and
  * the real upload path: details saved with team checks, the mapping confirmed into an Import
  * profile and parsed, channels shown in display units, refusals by role and by team, re-import.
  */
@@ -9,7 +9,7 @@ import { QueryTypes } from "sequelize";
 import { getSequelize } from "@/models/db";
 import { initModels, RideSession, ImportProfile, RaceEvent, Bike, Engine, Rider } from "@/models";
 import { runIngestJob } from "@/workers/ingest/run-ingest-job";
-import { confirmSessionImport, getImportScreen, reimportSession, sessionFormOptions, updateSessionDetails } from "@/lib/data/session-details";
+import { confirmSessionImport, getImportScreen, reimportSession, sessionFormOptions, updateSessionDetails } from "@/lib/data/session-edit";
 import { getSessionOverview } from "@/lib/data/session-overview";
 import { listSessions } from "@/lib/data/session-list";
 import { importFormSchema, sessionDetailsSchema, type ImportFormInput } from "@/lib/forms/session-form";

@@ -51,7 +51,7 @@ const q = <T extends object>(sql: string, sessionId: number) => sequelize().quer
 /** One hash per stored analysis of a session, ids and timestamps left out. */
 async function storedAnalyses(sessionId: number): Promise<Record<string, string>> {
   const h = (x: unknown) => createHash("sha256").update(typeof x === "string" ? x : JSON.stringify(x)).digest("hex");
-  const laps = await q("SELECT number, start_time_s, end_time_s, lap_time_ms, distance_m, is_out_lap, is_in_lap, is_invalid, pit_pass, sector_times_ms, top_speed_ms, stats FROM laps WHERE session_id = ? ORDER BY number", sessionId);
+  const laps = await q("SELECT number, start_time_s, end_time_s, lap_time_ms, distance_m, is_out_lap, is_in_lap, is_invalid, pit_pass, sector_times_ms, top_speed_mps, stats FROM laps WHERE session_id = ? ORDER BY number", sessionId);
   const findings = await q(
     "SELECT kind, lap_number, start_time_s, end_time_s, distance_m, lat, lon, severity, measured_value, threshold_value, unit, message FROM findings WHERE session_id = ? ORDER BY start_time_s, kind, id",
     sessionId,

@@ -18,7 +18,7 @@ import { loadSessionSeries } from "@/lib/data/session-series";
 import { runIngestJob } from "@/workers/ingest/run-ingest-job";
 import type { Mapping } from "@/lib/ingest/mapping";
 import { driveSlip } from "@/lib/slip/drive-slip";
-import { haversineM } from "@/lib/findings/haversine-m";
+import { haversineM } from "@/lib/geo/haversine-m";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
 

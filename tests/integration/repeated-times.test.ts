@@ -8,7 +8,7 @@ import { QueryTypes } from "sequelize";
 import { getSequelize } from "@/models/db";
 import { initModels, ImportProfile, RideSession } from "@/models";
 import { runIngestJob } from "@/workers/ingest/run-ingest-job";
-import { confirmSessionImport, getImportScreen, keepFirstOfRepeatedTimes } from "@/lib/data/session-details";
+import { confirmSessionImport, getImportScreen, keepFirstOfRepeatedTimes } from "@/lib/data/session-edit";
 import { getSessionOverview } from "@/lib/data/session-overview";
 import { importFormSchema } from "@/lib/forms/session-form";
 import type { TeamContext } from "@/lib/auth/guard";

@@ -34,7 +34,7 @@ beforeAll(async () => {
   aSessionRider = (await RideSession.create({ teamId: a.teamId, riderId: riderA.id, title: "A FP1", createdBy: a.members.engineer.userId, logFileId: null, eventId: null, bikeId: null, engineId: null, trackId: null, importProfileId: null, startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null })).id;
   aSessionOther = (await RideSession.create({ teamId: a.teamId, riderId: otherA.id, title: "A FP1 other", createdBy: a.members.engineer.userId, logFileId: null, eventId: null, bikeId: null, engineId: null, trackId: null, importProfileId: null, startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null })).id;
   // Lap 1 exists, so a 404 for team B below comes from the team check, not a missing lap.
-  await Lap.create({ sessionId: aSessionRider, number: 1, startTimeS: 0, endTimeS: 90, lapTimeMs: 90_000, distanceM: 3000, sectorTimesMs: null, topSpeedMs: null, stats: null });
+  await Lap.create({ sessionId: aSessionRider, number: 1, startTimeS: 0, endTimeS: 90, lapTimeMs: 90_000, distanceM: 3000, sectorTimesMs: null, topSpeedMps: null, stats: null });
   bSession = (await RideSession.create({ teamId: b.teamId, riderId: null, title: "B FP1", createdBy: b.members.engineer.userId, logFileId: null, eventId: null, bikeId: null, engineId: null, trackId: null, importProfileId: null, startedAt: null, conditions: null, statusReason: null, mapping: null, summary: null, durationS: null })).id;
 });
 

@@ -35,7 +35,7 @@ describe("season record", () => {
     // The first and last laps are counted as flying here too: the fixture has no out/in flags.
     expect(fp.bestLapMs).toBe(92_500);
     expect(fp.bestThreeMeanMs).toBeCloseTo((92_500 + 92_800 + 93_000) / 3, 6);
-    expect(fp.topSpeedMs).toBe(81);
+    expect(fp.topSpeedMps).toBe(81);
     expect(fp.setupVersion).toBe(2);
     expect(fp.findingsOpen).toBe(2);
     expect(fp.findingsAcknowledged).toBe(1);

@@ -144,6 +144,26 @@ describe("seedDemo on a fresh database, run twice", () => {
   });
 });
 
+describe("demo names agree", () => {
+  it("each demo file's header names the team, rider and bike the seed files its session under", async () => {
+    // The header of the file as uploaded (the committed sample files and the history files the seed generates).
+    const header = async (logFileId: number) => {
+      const url = (await LogFile.findByPk(logFileId))!.url!;
+      const head = (await (await fetch(url)).text()).slice(0, 2000).split("\n");
+      const field = (k: string) => head.find((l) => l.startsWith(`# ${k}: `))?.slice(k.length + 4).trim();
+      return { team: field("team"), rider: field("rider"), bike: field("bike") };
+    };
+    const files = Object.keys(first.sessionIds);
+    expect(files).toEqual(expect.arrayContaining(["demo-session-20min.csv", "demo-session-10min-rider-b.csv", "three-laps-20hz.csv", "summer-round-fp1.csv"]));
+    for (const file of files) {
+      const s = (await RideSession.findByPk(first.sessionIds[file]))!;
+      const [org] = await getSequelize().query<{ name: string }>("SELECT name FROM organization WHERE id = ?", { replacements: [s.teamId], type: QueryTypes.SELECT });
+      const seeded = { team: org!.name, rider: (await Rider.findByPk(s.riderId!))!.name, bike: (await Bike.findByPk(s.bikeId!))!.name };
+      expect(await header(s.logFileId!), file).toEqual(seeded);
+    }
+  });
+});
+
 describe("the demo team's history", () => {
   it("holds two events, a setup change with a measurable lap-time effect and an engine past 80 % of its interval", async () => {
     const { requireTeam } = await import("@/lib/auth/guard");

@@ -30,7 +30,7 @@ import { QueryTypes } from "sequelize";
 
 const FILE = path.resolve("sample-logs/files/three-laps-20hz.csv");
 const TRUTH = JSON.parse(fs.readFileSync(path.resolve("sample-logs/files/three-laps-20hz.truth.json"), "utf8")) as {
-  laps: { number: number; kind: string; startS: number; endS: number; lapTimeMs: number; sectorTimesMs: number[] | null; distanceM: number; topSpeedMs: number; flags: { outLap: boolean; inLap: boolean } }[];
+  laps: { number: number; kind: string; startS: number; endS: number; lapTimeMs: number; sectorTimesMs: number[] | null; distanceM: number; topSpeedMps: number; flags: { outLap: boolean; inLap: boolean } }[];
 };
 
 let a: TestTeam;
@@ -64,7 +64,7 @@ async function ensureLaps(sessionId: number) {
     TRUTH.laps.map((l) => ({
       sessionId, number: l.number + 1, startTimeS: l.startS, endTimeS: l.endS, lapTimeMs: Math.round(l.lapTimeMs), distanceM: l.distanceM,
       isOutLap: l.flags.outLap, isInLap: l.flags.inLap, isInvalid: false, pitPass: false,
-      sectorTimesMs: l.sectorTimesMs ? l.sectorTimesMs.map(Math.round) : [], topSpeedMs: l.topSpeedMs, stats: { complete: l.kind === "flying" },
+      sectorTimesMs: l.sectorTimesMs ? l.sectorTimesMs.map(Math.round) : [], topSpeedMps: l.topSpeedMps, stats: { complete: l.kind === "flying" },
     })),
   );
 }
@@ -339,7 +339,7 @@ describe("heavy requests, windows, corners and sectors", () => {
     for (const c of meta.corners) {
       expect(c.laps[0]!.gainedS).toBe(0);
       const l = c.laps[1]!;
-      expect(l.minSpeedMs).toBeLessThanOrEqual(Math.min(l.entrySpeedMs, l.exitSpeedMs) + 1e-6);
+      expect(l.minSpeedMps).toBeLessThanOrEqual(Math.min(l.entrySpeedMps, l.exitSpeedMps) + 1e-6);
       expect(l.apexM).toBeGreaterThanOrEqual(c.fromM);
       expect(l.apexM).toBeLessThanOrEqual(c.toM);
     }

@@ -75,7 +75,7 @@ beforeAll(async () => {
   shared = (await session(a.teamId, { title: "Shared", riderId: other.id, sharedWithRiders: true })).id;
   hidden = (await session(a.teamId, { title: "Hidden", riderId: other.id })).id;
   for (const n of [1, 2, 3]) {
-    await Lap.create({ sessionId: own, number: n, startTimeS: n * 100, endTimeS: n * 100 + 98, lapTimeMs: 98_000, distanceM: 4000, sectorTimesMs: null, topSpeedMs: null, stats: null });
+    await Lap.create({ sessionId: own, number: n, startTimeS: n * 100, endTimeS: n * 100 + 98, lapTimeMs: 98_000, distanceM: 4000, sectorTimesMs: null, topSpeedMps: null, stats: null });
   }
 });
 

@@ -34,20 +34,20 @@ function makeLap(brakeShiftM: number) {
       if (i >= onset && i <= c.apex - 20) p[i] = 12 * BAR;
     }
   }
-  return { distanceM: d, speedMs: v, brakeFrontPa: p };
+  return { distanceM: d, speedMps: v, brakeFrontPa: p };
 }
 
 describe("findCorners", () => {
   it("finds the two speed minima by prominence and ignores the lift", () => {
     const lap = makeLap(0);
-    const c = findCorners(lap.speedMs, lap.distanceM, { minProminenceMs: 5 });
+    const c = findCorners(lap.speedMps, lap.distanceM, { minProminenceMps: 5 });
     expect(c.map((x) => x.distanceM)).toEqual([500, 1200]);
     expect(c.map((x) => x.name)).toEqual(["Corner 1", "Corner 2"]);
-    expect(c[0].minSpeedMs).toBeCloseTo(20, 5);
+    expect(c[0].minSpeedMps).toBeCloseTo(20, 5);
     // Prominence of corner 2: the lower shoulder is 70 m/s on both sides → 70 − 35 = 35 m/s.
-    expect(c[1].prominenceMs).toBeCloseTo(35, 5);
+    expect(c[1].prominenceMps).toBeCloseTo(35, 5);
     // With a 1 m/s prominence floor the 2 m/s lift becomes a "corner".
-    expect(findCorners(lap.speedMs, lap.distanceM, { minProminenceMs: 1 })).toHaveLength(3);
+    expect(findCorners(lap.speedMps, lap.distanceM, { minProminenceMps: 1 })).toHaveLength(3);
   });
 });
 
@@ -61,7 +61,7 @@ describe("brakingPoints", () => {
     // Release between 480 and 481 m: 480 + 7/12.
     expect(pts[0].releaseDistanceM!).toBeCloseTo(480 + 7 / 12, 6);
     expect(pts[0].peakPressurePa).toBeCloseTo(12 * BAR, 0);
-    expect(pts[0].minSpeedMs).toBeCloseTo(20, 5);
+    expect(pts[0].minSpeedMps).toBeCloseTo(20, 5);
     expect(pts[0].onsetToApexM!).toBeCloseTo(500 - (274 + 5 / 12), 6);
     // Corner 2: (70² − 35²)/20 = 183.75 m → onset 1016.25 m; samples at 1 m: first ≥ is 1017,
     // crossing 1016 + 5/12.
@@ -74,7 +74,7 @@ describe("brakingPoints", () => {
     const [pt] = brakingPoints(lap, [{ name: "Corner 1", distanceM: 500 }]);
     expect(pt.braked).toBe(false);
     expect(pt.onsetDistanceM).toBeNull();
-    expect(pt.minSpeedMs).toBeCloseTo(20, 5);
+    expect(pt.minSpeedMps).toBeCloseTo(20, 5);
   });
 });
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { buildAnalysisBase } from "@/lib/analysis/analysis-base";
-import { computeBrief } from "@/lib/analysis/page-analyses";
+import { computeBrief } from "@/lib/analysis/brief-page";
 import { toLocalMetres } from "@/lib/geo/to-local-metres";
 import { alignToReference } from "@/lib/braking/align-to-reference";
 import type { SessionSeries } from "@/lib/channels/roles";
@@ -109,7 +109,7 @@ describe("alignToReference without GPS", () => {
     // Proportion: 2678 · 3000 / 3009.4 = 2669.66 m (a lap 0.313 % longer, the same place).
     const lap = { distanceM: [0, 1000, 2000, 3009.4] };
     const ref = { distanceM: [0, 1000, 2000, 3000] };
-    const point = { name: "Turn 1", braked: true, onsetDistanceM: 2678, releaseDistanceM: 2800, peakPressurePa: 1e6, minSpeedMs: 20, apexDistanceM: 2830, onsetToApexM: 152 };
+    const point = { name: "Turn 1", braked: true, onsetDistanceM: 2678, releaseDistanceM: 2800, peakPressurePa: 1e6, minSpeedMps: 20, apexDistanceM: 2830, onsetToApexM: 152 };
     const [a] = alignToReference([point], lap, ref);
     expect(a.onsetDistanceM!).toBeCloseTo((2678 * 3000) / 3009.4, 6);
     expect(a.apexDistanceM).toBeCloseTo((2830 * 3000) / 3009.4, 6);

@@ -13,7 +13,7 @@ import { readSampleCsv } from "../findings/read-sample-csv";
  */
 const CSV = path.resolve(__dirname, "../../../sample-logs/files/three-laps-20hz.csv");
 
-interface CornerTruth { name: string; apexDistanceM: number; minSpeedMs: number; brakeOnsetDistanceM: number | null }
+interface CornerTruth { name: string; apexDistanceM: number; minSpeedMps: number; brakeOnsetDistanceM: number | null }
 interface LapTruth { number: number; kind: string; startS: number; endS: number; distanceM: number; corners: CornerTruth[] }
 interface Truth { brakeOnsetThresholdBar: number; laps: LapTruth[] }
 
@@ -33,7 +33,7 @@ describe("braking on the generated three-lap sample log", () => {
     for (let i = 1; i < d.length; i++) d[i] = d[i - 1] + 0.5 * (v[i] + v[i - 1]) * (t[a + i] - t[a + i - 1]);
     const k = l.distanceM / d[d.length - 1];
     for (let i = 0; i < d.length; i++) d[i] *= k;
-    return { distanceM: d, speedMs: v, brakeFrontPa: s.channels.brake_front!.subarray(a, b) };
+    return { distanceM: d, speedMps: v, brakeFrontPa: s.channels.brake_front!.subarray(a, b) };
   }
 
   it("has flying laps with corners", () => {
@@ -52,11 +52,11 @@ describe("braking on the generated three-lap sample log", () => {
 
   it.each(flying.map((l) => [l.number, l] as const))("lap %d: every corner found is a true corner (apex ±15 m, minimum speed ±0.5 m/s)", (_n, lap) => {
     const d = lapData(lap);
-    const found = findCorners(d.speedMs, d.distanceM);
+    const found = findCorners(d.speedMps, d.distanceM);
     for (const c of found) {
       const match = lap.corners.find((tc) => Math.abs(tc.apexDistanceM - c.distanceM) <= 15);
       expect(match, `found corner at ${c.distanceM.toFixed(0)} m`).toBeDefined();
-      expect(Math.abs(match!.minSpeedMs - c.minSpeedMs)).toBeLessThan(0.5);
+      expect(Math.abs(match!.minSpeedMps - c.minSpeedMps)).toBeLessThan(0.5);
     }
     // All but one: the invented circuit's second corner is a fast kink taken with a ~1 m/s dip,
     // below the 5 m/s prominence setting, so it is not a speed minimum worth the name.

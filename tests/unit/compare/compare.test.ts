@@ -4,15 +4,15 @@ import { resampleOnDistance } from "@/lib/compare/resample-on-distance";
 import { runningGap } from "@/lib/compare/running-gap";
 
 /** A lap at constant speed, sampled at `hz`, starting at session time t0. */
-function constantLap(speedMs: number, lengthM: number, hz: number, t0: number) {
-  const n = Math.ceil((lengthM / speedMs) * hz) + 1;
+function constantLap(speedMps: number, lengthM: number, hz: number, t0: number) {
+  const n = Math.ceil((lengthM / speedMps) * hz) + 1;
   const timeS = new Float64Array(n);
   const distanceM = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     // Last sample exactly at the end of the lap (t = length / speed).
-    const t = Math.min(i / hz, lengthM / speedMs);
+    const t = Math.min(i / hz, lengthM / speedMps);
     timeS[i] = t0 + t;
-    distanceM[i] = t * speedMs;
+    distanceM[i] = t * speedMps;
   }
   return { timeS, distanceM };
 }

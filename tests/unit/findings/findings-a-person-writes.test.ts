@@ -45,7 +45,7 @@ describe("formatLapList", () => {
 
 // Sensor-flat is judged above a set speed (72 km/h by default); the invented circuit's slow corners
 // dip under it, so the check is set to 18 km/h to keep each 25 s stuck stretch in one piece.
-const SLOW_CORNERS_TOO = { sensorFlatMinSpeedMs: 5 };
+const SLOW_CORNERS_TOO = { sensorFlatMinSpeedMps: 5 };
 
 describe("repeats of one kind on one channel collapse into one finding", () => {
   let g: GeneratedSession;

@@ -82,7 +82,7 @@ function makeSession(plant: boolean): { series: SessionSeries; laps: LapSpan[] }
 // default that fits every track and engine.
 const ctxFor = (laps: LapSpan[]) => ({
   laps,
-  track: { pitLaneTimes: [{ startTimeS: 110, endTimeS: 120 }], pitSpeedLimitMs: 60 * KMH },
+  track: { pitLaneTimes: [{ startTimeS: 110, endTimeS: 120 }], pitSpeedLimitMps: 60 * KMH },
   bike: { forkStrokeM: 0.12, slip: { zeroRatio: 1 }, revCeilingRpm: 14000 },
 });
 
@@ -135,7 +135,7 @@ describe("runFindings on the same session without plants", () => {
 describe("thresholds", () => {
   const { series, laps } = makeSession(true);
   it("track pit limit of 40 km/h (common practice in some national series) catches the whole pit lane run", () => {
-    const f = runFindings(series, { ...ctxFor(laps), track: { pitSpeedLimitMs: 40 * KMH, pitLaneTimes: [{ startTimeS: 110, endTimeS: 120 }] } });
+    const f = runFindings(series, { ...ctxFor(laps), track: { pitSpeedLimitMps: 40 * KMH, pitLaneTimes: [{ startTimeS: 110, endTimeS: 120 }] } });
     const pit = f.filter((x) => x.kind === "pit_overspeed");
     // 14 ± 0.5 m/s = 50–52 km/h everywhere in the lane is above 40 km/h: one long finding.
     expect(pit).toHaveLength(1);
@@ -157,7 +157,7 @@ describe("thresholds", () => {
       expect(["common practice", "Lapbench default"]).toContain(d.source);
     }
     // Common-practice trade fact: pit limits are 40 or 60 km/h; the default is the lower, safer one.
-    expect(DEFAULT_THRESHOLDS.pitSpeedLimitMs.value * 3.6).toBeCloseTo(40, 9);
+    expect(DEFAULT_THRESHOLDS.pitSpeedLimitMps.value * 3.6).toBeCloseTo(40, 9);
     // No published source: our own settings, labelled so.
     expect(DEFAULT_THRESHOLDS.brakeOnStraightPressurePa.value / BAR).toBe(2);
     expect(DEFAULT_THRESHOLDS.brakeOnStraightPressurePa.source).toBe("Lapbench default");
@@ -187,6 +187,6 @@ describe("honest defaults: nothing assumed that the bike or the track does not s
     expect(runFindings(series, ctxFor(laps)).some((x) => x.kind === "brake_on_straight")).toBe(true);
     expect(runFindings(leaning, ctxFor(laps)).some((x) => x.kind === "brake_on_straight")).toBe(false);
     // At t = 50 s the planted speed is 45 + 20·sin(15) ≈ 58 m/s; a 70 m/s floor puts it below.
-    expect(runFindings(series, { ...ctxFor(laps), thresholds: { brakeOnStraightMinSpeedMs: 70 } }).some((x) => x.kind === "brake_on_straight")).toBe(false);
+    expect(runFindings(series, { ...ctxFor(laps), thresholds: { brakeOnStraightMinSpeedMps: 70 } }).some((x) => x.kind === "brake_on_straight")).toBe(false);
   });
 });

@@ -14,7 +14,7 @@ const DIR = path.resolve(__dirname, "../../../sample-logs/files");
 const CSV = path.join(DIR, "three-laps-20hz.csv");
 
 interface Truth {
-  pitLaneLimitMs: number;
+  pitLaneLimitMps: number;
   revCeilingRpm: number;
   laps: { number: number; startS: number; endS: number; flags: { outLap: boolean; inLap: boolean } }[];
   pitLane: { lap: number; fromS: number; toS: number }[];
@@ -32,7 +32,7 @@ describe("runFindings on the generated three-lap sample log", () => {
   const brakeRule = truth.events.find((e) => e.kind === "brake_on_straight");
   const ctx: FindingsContext = {
     laps,
-    track: { pitSpeedLimitMs: truth.pitLaneLimitMs, pitLaneTimes: truth.pitLane.map((p) => ({ startTimeS: p.fromS, endTimeS: p.toS })) },
+    track: { pitSpeedLimitMps: truth.pitLaneLimitMps, pitLaneTimes: truth.pitLane.map((p) => ({ startTimeS: p.fromS, endTimeS: p.toS })) },
     // The invented bike's strokes (fork 120 mm, shock 65 mm) and its class rev ceiling from the truth.
     bike: { revCeilingRpm: truth.revCeilingRpm, forkStrokeM: 0.12, shockStrokeM: 0.065 },
     // The truth states its own brake-on-straight rule ("≥ 1 bar while throttle > 80 %"); use it so the times compare.

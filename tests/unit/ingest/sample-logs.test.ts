@@ -16,7 +16,7 @@ interface Truth {
   samples: number;
   metadata: { startedAt: string };
   channels: { header: string; role: string; siUnit: string }[];
-  laps: { topSpeedMs: number }[];
+  laps: { topSpeedMps: number }[];
 }
 const truthOf = (file: string): Truth => JSON.parse(readFileSync(join(DIR, file), "utf8"));
 const ch = (s: ParsedSeries, role: string) => s.channels.find((c) => c.role === role)!;
@@ -42,7 +42,7 @@ describe("sample logs from sample-logs/files", () => {
     expect(ch(s, "gps_lat").sampleCount).toBeCloseTo((s.rows * truth.gpsRateHz) / truth.sampleRateHz, -1);
     expect(ch(s, "speed_front").sampleCount).toBe(s.rows);
     // km/h → m/s conversion checked against the generator's top speed (m/s), within 1%.
-    const top = Math.max(...truth.laps.map((l) => l.topSpeedMs));
+    const top = Math.max(...truth.laps.map((l) => l.topSpeedMps));
     expect(Math.abs(ch(s, "speed_front").max - top) / top).toBeLessThan(0.01);
     expect(s.metadata["started at"]).toBe(truth.metadata.startedAt);
   });

@@ -72,8 +72,8 @@ describe("lapStats", () => {
     const laps = { number: 1, startTimeS: 0.5, endTimeS: 1.49, lapTimeMs: 990, sectorTimesMs: [990], outLap: false, inLap: false, pitPass: false, complete: true };
     const s = lapStats({ timeS, channels: { throttle, speed_front: speed } }, laps, ["throttle"]);
     expect(s.speedSource).toBe("speed_front");
-    expect(s.topSpeedMs).toBe(26);
-    expect(s.minSpeedMs).toBe(20);
+    expect(s.topSpeedMps).toBe(26);
+    expect(s.minSpeedMps).toBe(20);
     expect(s.channels.throttle!.n).toBe(100);
     expect(s.channels.throttle!.mean).toBeCloseTo(50.5, 12);
     expect(s.channels.throttle!.sd).toBeCloseTo(Math.sqrt((100 * 101) / 12), 12);

@@ -48,7 +48,7 @@ describe("a dead front wheel sensor (reads 0 while GPS says the bike moves)", ()
     expect(dDead.distanceM[n - 1] / dGood.distanceM[n - 1]).toBeLessThan(1.01);
 
     const pit = g.truth.pitLane.map((p) => ({ startTimeS: p.fromS, endTimeS: p.toS }));
-    const ctx = { laps: g.truth.laps.map((l) => ({ number: l.number, startTimeS: l.startS, endTimeS: l.endS })), track: { pitLaneTimes: pit, pitSpeedLimitMs: g.truth.pitLaneLimitMs } };
+    const ctx = { laps: g.truth.laps.map((l) => ({ number: l.number, startTimeS: l.startS, endTimeS: l.endS })), track: { pitLaneTimes: pit, pitSpeedLimitMps: g.truth.pitLaneLimitMps } };
     const fGood = runFindings(good, ctx);
     const fDead = runFindings(dead, ctx);
     const flat = fDead.filter((f) => f.kind === "sensor_flat" && f.channel === "speed_front");
@@ -139,7 +139,7 @@ describe("a missed pit-exit crossing", () => {
     // Before: entry of lap 1 → exit of lap 2, a whole lap at 216 km/h "in the pit lane".
     expect(ranges.length).toBeGreaterThan(0);
     expect(ranges[0].endTimeS).toBeLessThan(exitTime + 3);
-    const f = runFindings(series, { track: { pitLaneTimes: ranges, pitSpeedLimitMs: 60 / 3.6 } });
+    const f = runFindings(series, { track: { pitLaneTimes: ranges, pitSpeedLimitMps: 60 / 3.6 } });
     expect(f.filter((x) => x.kind === "pit_overspeed" && x.measuredValue > 150 / 3.6)).toHaveLength(0);
   });
 });

@@ -37,16 +37,16 @@ function loopXY(sigma: number): [number, number] {
 
 export interface Piece {
   lengthM: number;
-  speedMs: number;
+  speedMps: number;
   at(s: number): [number, number];
 }
 
-export function loop(fromSigma: number, toSigma: number, speedMs: number): Piece {
-  return { lengthM: toSigma - fromSigma, speedMs, at: (s) => loopXY(fromSigma + s) };
+export function loop(fromSigma: number, toSigma: number, speedMps: number): Piece {
+  return { lengthM: toSigma - fromSigma, speedMps, at: (s) => loopXY(fromSigma + s) };
 }
-export function line(x0: number, y0: number, x1: number, y1: number, speedMs: number): Piece {
+export function line(x0: number, y0: number, x1: number, y1: number, speedMps: number): Piece {
   const len = Math.hypot(x1 - x0, y1 - y0);
-  return { lengthM: len, speedMs, at: (s) => [x0 + ((x1 - x0) * s) / len, y0 + ((y1 - y0) * s) / len] };
+  return { lengthM: len, speedMps, at: (s) => [x0 + ((x1 - x0) * s) / len, y0 + ((y1 - y0) * s) / len] };
 }
 
 /** Gate across a vertical line x = gx from y0 to y1; `east` = riding east crosses it forward. */
@@ -95,9 +95,9 @@ export function routeTime(route: Piece[], sRoute: number): number {
   let t = 0;
   let s = sRoute;
   for (const p of route) {
-    if (s <= p.lengthM) return t + s / p.speedMs;
+    if (s <= p.lengthM) return t + s / p.speedMps;
     s -= p.lengthM;
-    t += p.lengthM / p.speedMs;
+    t += p.lengthM / p.speedMps;
   }
   return t;
 }
@@ -121,8 +121,8 @@ export function routeS(route: Piece[], t: number): number {
   let s0 = 0;
   let t0 = 0;
   for (const p of route) {
-    const dt = p.lengthM / p.speedMs;
-    if (t <= t0 + dt) return s0 + (t - t0) * p.speedMs;
+    const dt = p.lengthM / p.speedMps;
+    if (t <= t0 + dt) return s0 + (t - t0) * p.speedMps;
     s0 += p.lengthM;
     t0 += dt;
   }
@@ -183,10 +183,10 @@ export function sampleSeries(route: Piece[], clockHz: number, gpsEvery: number, 
     const s = routeS(route, t);
     // Speed of the piece the bike is on at time t.
     let acc = 0;
-    let v = route[route.length - 1].speedMs;
+    let v = route[route.length - 1].speedMps;
     for (const p of route) {
       if (s <= acc + p.lengthM) {
-        v = p.speedMs;
+        v = p.speedMps;
         break;
       }
       acc += p.lengthM;

@@ -10,11 +10,11 @@ import { bestPerPair } from "@/lib/record/best-per-pair";
 import { eventProgression } from "@/lib/record/event-progression";
 import { storedLapState } from "@/lib/laps/stored-lap-state";
 
-const lap = (number: number, lapTimeMs: number, extra: Partial<RecordLap> = {}): RecordLap => ({ number, lapTimeMs, isOutLap: false, isInLap: false, isInvalid: false, pitPass: false, topSpeedMs: null, ...extra });
+const lap = (number: number, lapTimeMs: number, extra: Partial<RecordLap> = {}): RecordLap => ({ number, lapTimeMs, isOutLap: false, isInLap: false, isInvalid: false, pitPass: false, topSpeedMps: null, ...extra });
 
 describe("lapFigures", () => {
   it("takes the best lap and the mean of the three quickest flying laps", () => {
-    const laps = [lap(0, 120_000, { isOutLap: true }), lap(1, 92_400), lap(2, 91_800, { topSpeedMs: 80.5 }), lap(3, 92_100), lap(4, 93_000, { topSpeedMs: 81.2 }), lap(5, 80_000, { isInvalid: true }), lap(6, 130_000, { isInLap: true })];
+    const laps = [lap(0, 120_000, { isOutLap: true }), lap(1, 92_400), lap(2, 91_800, { topSpeedMps: 80.5 }), lap(3, 92_100), lap(4, 93_000, { topSpeedMps: 81.2 }), lap(5, 80_000, { isInvalid: true }), lap(6, 130_000, { isInLap: true })];
     const f = lapFigures(laps);
     expect(f.bestLapMs).toBe(91_800);
     expect(f.bestLapNumber).toBe(2);
@@ -23,13 +23,13 @@ describe("lapFigures", () => {
     expect(f.bestThreeMeanMs).toBeCloseTo(92_100, 9);
     expect(f.bestThreeMeanMs).toBeCloseTo(mean([91_800, 92_100, 92_400]), 9);
     // Top speed over every lap, flying or not.
-    expect(f.topSpeedMs).toBe(81.2);
+    expect(f.topSpeedMps).toBe(81.2);
   });
 
   it("gives no best-three mean with fewer than three flying laps, and nothing without laps", () => {
     expect(lapFigures([lap(1, 90_000), lap(2, 91_000), lap(3, 50_000, { pitPass: true })]).bestThreeMeanMs).toBeNull();
     const none = lapFigures([]);
-    expect(none).toMatchObject({ bestLapMs: null, bestThreeMeanMs: null, topSpeedMs: null, flyingLapCount: 0 });
+    expect(none).toMatchObject({ bestLapMs: null, bestThreeMeanMs: null, topSpeedMps: null, flyingLapCount: 0 });
   });
 });
 

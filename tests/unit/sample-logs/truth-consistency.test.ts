@@ -242,7 +242,7 @@ describe("planted events and clean laps", () => {
 
   it("pit lane at or under 60 km/h except the planted ~72 km/h overspeed", () => {
     const front = col("speed_front"), gps = col("gps_speed");
-    const limit = CIRCUIT.pitLane.speedLimitMs;
+    const limit = CIRCUIT.pitLane.speedLimitMps;
     const e = s.truth.events.find((x) => x.kind === "pit_overspeed")!;
     expect(e.measured.value * 3.6).toBeGreaterThan(70);
     expect(e.measured.value * 3.6).toBeLessThan(74);

@@ -185,7 +185,7 @@ describe("spinEvents: one rule for the page and the finding, and the wheelie gua
     const slip = driveSlip(s, { zeroRatio: 1 });
     const opts = { targetSlip: 0.03, minDurationS: 0.1 };
     expect(spinEvents(slip, s.channels.throttle, s.timeS, opts).length).toBeGreaterThan(0);
-    expect(spinEvents(slip, s.channels.throttle, s.timeS, { ...opts, frontSpeedMs: f, wheelieDecelMs2: 3 })).toHaveLength(0);
+    expect(spinEvents(slip, s.channels.throttle, s.timeS, { ...opts, frontSpeedMps: f, wheelieDecelMps2: 3 })).toHaveLength(0);
   });
 });
 

@@ -78,7 +78,7 @@ describe("suspensionUse", () => {
         xx[i] = 0.035 + (i % 2 ? 0.001 : -0.001);
       }
     }
-    const u = suspensionUse(xx, tt, { strokeM: 0.12, lowHighBoundaryMs: 0.1, speedMs: sp });
+    const u = suspensionUse(xx, tt, { strokeM: 0.12, lowHighBoundaryMs: 0.1, speedMps: sp });
     expect(u.sag.stoppedM).toBeCloseTo(0.03, 6);
     expect(u.sag.steadySpeedM).toBeCloseTo(0.035, 3);
   });
@@ -135,9 +135,9 @@ describe("suspensionUse on a pot logged slower than the master clock", () => {
     const th = 2 * Math.PI * f * 0.02;
     const gain = (2 * Math.sin(th) + 4 * Math.sin(2 * th)) / (10 * th);
     let worst = 0;
-    for (let i = 40; i < n - 40; i += 4) worst = Math.max(worst, Math.abs(u.velocityMs[i] - gain * vmax * Math.cos(2 * Math.PI * f * t[i])));
+    for (let i = 40; i < n - 40; i += 4) worst = Math.max(worst, Math.abs(u.velocityMps[i] - gain * vmax * Math.cos(2 * Math.PI * f * t[i])));
     expect(worst / vmax).toBeLessThan(0.005);
-    expect(Number.isNaN(u.velocityMs[1])).toBe(true);
+    expect(Number.isNaN(u.velocityMps[1])).toBe(true);
   });
 
   it("sets the window in milliseconds: the same span of time at 200 Hz and at 50 Hz", () => {
@@ -154,8 +154,8 @@ describe("suspensionUse on a pot logged slower than the master clock", () => {
     for (let i = 1000; i < 1200; i++) gap[i] = NaN; // 1 s without the pot
     const u = suspensionUse(gap, t, { strokeM: 0.12, lowHighBoundaryMs: 0.1 });
     // Both sides of the gap keep their velocities; the gap itself has none.
-    expect(Number.isFinite(u.velocityMs[996])).toBe(true);
-    expect(Number.isFinite(u.velocityMs[1200])).toBe(true);
-    for (let i = 1000; i < 1200; i++) expect(Number.isNaN(u.velocityMs[i])).toBe(true);
+    expect(Number.isFinite(u.velocityMps[996])).toBe(true);
+    expect(Number.isFinite(u.velocityMps[1200])).toBe(true);
+    for (let i = 1000; i < 1200; i++) expect(Number.isNaN(u.velocityMps[i])).toBe(true);
   });
 });

@@ -6,7 +6,7 @@ import { roleCan } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
 import { parseId } from "@/lib/http/parse-id";
 import { getSessionOverview, type SessionOverview } from "@/lib/data/session-overview";
-import { sessionFormOptions } from "@/lib/data/session-details";
+import { sessionFormOptions } from "@/lib/data/session-edit";
 import { SessionHeader } from "@/components/session/session-header";
 import { SessionStatus } from "@/components/session/session-status";
 import { ChannelTable } from "@/components/session/channel-table";

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { teamRoute } from "@/lib/http/route";
-import { getSessionForViewer } from "@/lib/data/session-detail";
+import { getSessionForViewer } from "@/lib/data/session-for-viewer";
 import { HttpError } from "@/lib/http/http-error";
 import { parseId } from "@/lib/http/parse-id";
 

@@ -22,7 +22,7 @@ export default async function PrintSessionPage({ params }: { params: Promise<{ i
     if (e instanceof HttpError && e.status === 404) notFound();
     throw e;
   });
-  const f = lapFigures(laps.map((l) => ({ number: l.number, lapTimeMs: l.lapTimeMs, isOutLap: l.outLap, isInLap: l.inLap, isInvalid: l.invalid, pitPass: l.pitPass, topSpeedMs: l.topSpeedMs })));
+  const f = lapFigures(laps.map((l) => ({ number: l.number, lapTimeMs: l.lapTimeMs, isOutLap: l.outLap, isInLap: l.inLap, isInvalid: l.invalid, pitPass: l.pitPass, topSpeedMps: l.topSpeedMps })));
   const sectors = Math.max(0, ...laps.map((l) => l.sectorTimesMs.length));
   const setup = view.versions[0];
   return (
@@ -33,7 +33,7 @@ export default async function PrintSessionPage({ params }: { params: Promise<{ i
       </p>
       <p>
         Best lap <strong className="num">{formatLapTime(f.bestLapMs) || "—"}</strong> (lap {f.bestLapNumber ?? "—"}) · best-three mean <span className="num">{formatLapTime(f.bestThreeMeanMs) || "—"}</span> · {f.flyingLapCount} flying laps · top speed{" "}
-        <span className="num">{f.topSpeedMs == null ? "—" : `${(f.topSpeedMs * 3.6).toFixed(1)} km/h`}</span>
+        <span className="num">{f.topSpeedMps == null ? "—" : `${(f.topSpeedMps * 3.6).toFixed(1)} km/h`}</span>
       </p>
       <h2>Laps</h2>
       <table>
@@ -58,7 +58,7 @@ export default async function PrintSessionPage({ params }: { params: Promise<{ i
                   {formatLapTime(l.sectorTimesMs[k] ?? null) || "—"}
                 </td>
               ))}
-              <td className="num">{l.topSpeedMs == null ? "—" : (l.topSpeedMs * 3.6).toFixed(1)}</td>
+              <td className="num">{l.topSpeedMps == null ? "—" : (l.topSpeedMps * 3.6).toFixed(1)}</td>
               <td>{[l.outLap && "out", l.inLap && "in", l.pitPass && "pit", l.invalid && "invalid"].filter(Boolean).join(", ")}</td>
             </tr>
           ))}

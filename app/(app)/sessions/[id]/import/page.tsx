@@ -4,7 +4,7 @@ import { notFound, redirect } from "next/navigation";
 import { pageTeam } from "@/lib/auth/page-guard";
 import { HttpError } from "@/lib/http/http-error";
 import { parseId } from "@/lib/http/parse-id";
-import { getImportScreen, sessionFormOptions, type ImportScreen } from "@/lib/data/session-details";
+import { getImportScreen, sessionFormOptions, type ImportScreen } from "@/lib/data/session-edit";
 import { ImportForm } from "@/components/session/import-form";
 
 export const metadata: Metadata = { title: "Import" };

@@ -5,7 +5,7 @@ import { pageTeam } from "@/lib/auth/page-guard";
 import { HttpError } from "@/lib/http/http-error";
 import { parseId } from "@/lib/http/parse-id";
 import { getSetupSheetView, type SetupSheetView } from "@/lib/data/setup-sheets";
-import { getSessionForViewer } from "@/lib/data/session-detail";
+import { getSessionForViewer } from "@/lib/data/session-for-viewer";
 import { SetupCaution } from "@/components/setup/setup-caution";
 import { SetupSideBySide, SetupValuesFull } from "@/components/record/setup-values";
 

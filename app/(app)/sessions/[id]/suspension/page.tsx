@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { SG_WINDOWS, type SuspensionAnalysis, type SuspensionSide } from "@/lib/data/analysis";
 import { DEFAULT_LOW_HIGH_BOUNDARY_MS, DEFAULT_VELOCITY_WINDOW_MS } from "@/lib/suspension/suspension-use";
-import { getSessionForViewer } from "@/lib/data/session-detail";
+import { getSessionForViewer } from "@/lib/data/session-for-viewer";
 import { suspensionForViewer } from "@/lib/data/viewer-analyses";
 import { viewerSession } from "@/lib/auth/viewer-session";
 import { AnalysisHeader } from "@/components/analysis/analysis-header";

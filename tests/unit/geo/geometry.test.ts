@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { haversineM } from "@/lib/findings/haversine-m";
-import { pointInPolygon } from "@/lib/findings/point-in-polygon";
+import { haversineM } from "@/lib/geo/haversine-m";
+import { pointInPolygon } from "@/lib/geo/point-in-polygon";
 import { runFindings } from "@/lib/findings/run-findings";
 
 describe("haversineM", () => {

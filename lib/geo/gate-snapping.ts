@@ -1,10 +1,11 @@
 /**
- * Browser-side geometry of the gate editor: the outline in local metres, snapping a click to the
- * path, distance along the lap, and gate shapes for drawing. Plain functions, no React.
+ * Geometry of the gate editor: the outline in local metres, snapping a click to the path, distance
+ * along the lap, and gate shapes for drawing. Plain functions (no React, no database); they run in
+ * the browser.
  */
-import { toLocalMetres, type LocalProjection } from "@/lib/geo/to-local-metres";
-import { gateAcrossPath } from "@/lib/geo/gate-across-path";
-import type { Gate } from "@/lib/geo/types";
+import { toLocalMetres, type LocalProjection } from "./to-local-metres";
+import { gateAcrossPath } from "./gate-across-path";
+import type { Gate } from "./types";
 
 export interface Path {
   x: Float64Array;

@@ -136,12 +136,12 @@ export function pitLaneTimes(series: SeriesLike, gates: TrackGates | null): { st
       if (openedAt === null) openedAt = e.t;
     } else {
       if (openedAt !== null) out.push({ startTimeS: openedAt, endTimeS: e.t });
-      else if (!seenAny) out.push({ startTimeS: series.timeS[0], endTimeS: e.t });
+      else if (!seenAny) out.push({ startTimeS: series.timeS[0]!, endTimeS: e.t });
       openedAt = null;
     }
     seenAny = true;
   }
-  if (openedAt !== null) out.push({ startTimeS: openedAt, endTimeS: series.timeS[series.timeS.length - 1] });
+  if (openedAt !== null) out.push({ startTimeS: openedAt, endTimeS: series.timeS[series.timeS.length - 1]! });
   return boundPitIntervals(out, fixes, gates.pitExit);
 }
 
@@ -164,12 +164,12 @@ function boundPitIntervals(
   return intervals.map((iv) => {
     let best = Infinity;
     let bestT = NaN;
-    for (let k = lowerBound(fixes.timeS, iv.startTimeS); k < n && fixes.timeS[k] < iv.endTimeS; k++) {
-      const d = haversineM(fixes.latDeg[k], fixes.lonDeg[k], mx, my);
+    for (let k = lowerBound(fixes.timeS, iv.startTimeS); k < n && fixes.timeS[k]! < iv.endTimeS; k++) {
+      const d = haversineM(fixes.latDeg[k]!, fixes.lonDeg[k]!, mx, my);
       if (d < nearM) {
         if (d < best) {
           best = d;
-          bestT = fixes.timeS[k];
+          bestT = fixes.timeS[k]!;
         }
       } else if (Number.isFinite(best)) {
         return { startTimeS: iv.startTimeS, endTimeS: bestT };
@@ -188,9 +188,9 @@ function positionNear(series: SeriesLike, i: number): { lat: number | null; lon:
   // 200 samples is 2 s at 100 Hz: far more than one fix interval of any logger.
   for (let k = 0; k < 200; k++) {
     const f = i + k;
-    if (f < n && Number.isFinite(lat[f]) && Number.isFinite(lon[f])) return { lat: lat[f], lon: lon[f] };
+    if (f < n && Number.isFinite(lat[f]!) && Number.isFinite(lon[f]!)) return { lat: lat[f]!, lon: lon[f]! };
     const b = i - k;
-    if (b >= 0 && Number.isFinite(lat[b]) && Number.isFinite(lon[b])) return { lat: lat[b], lon: lon[b] };
+    if (b >= 0 && Number.isFinite(lat[b]!) && Number.isFinite(lon[b]!)) return { lat: lat[b]!, lon: lon[b]! };
   }
   return { lat: null, lon: null };
 }
@@ -237,7 +237,7 @@ export function analyseSeries(
     const s = lapStats(series, lap, series.channels.engine_rpm ? ["engine_rpm"] : []);
     return {
       ...lap,
-      distanceM: hasDistance ? dist.lapLengthM[k] : null,
+      distanceM: hasDistance ? dist.lapLengthM[k]! : null,
       topSpeedMs: finiteOrNull(s.topSpeedMs),
       stats: {
         minSpeedMs: finiteOrNull(s.minSpeedMs),
@@ -268,7 +268,7 @@ export function analyseSeries(
   const lapIndex = new Map(laps.map((l, k) => [l.number, k]));
   const analysedFindings: AnalysedFinding[] = findings.map((f) => {
     const k = f.lapNumber == null ? undefined : lapIndex.get(f.lapNumber);
-    const distanceM = k === undefined || !hasDistance ? null : dist.distanceM[f.startIndex] - dist.lapStartDistanceM[k];
+    const distanceM = k === undefined || !hasDistance ? null : dist.distanceM[f.startIndex]! - dist.lapStartDistanceM[k]!;
     return {
       ...f,
       distanceM: finiteOrNull(distanceM),
@@ -283,7 +283,7 @@ export function analyseSeries(
   for (const l of analysedLaps) if (l.topSpeedMs != null && (topSpeedMs === null || l.topSpeedMs > topSpeedMs)) topSpeedMs = l.topSpeedMs;
   if (laps.length === 0) {
     const v = series.channels.speed_front ?? series.channels.gps_speed;
-    if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]) && (topSpeedMs === null || v[i] > topSpeedMs)) topSpeedMs = v[i];
+    if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]!) && (topSpeedMs === null || v[i]! > topSpeedMs)) topSpeedMs = v[i]!;
   }
   const counts: Partial<Record<FindingKind, number>> = {};
   for (const f of events) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
@@ -313,7 +313,7 @@ export function analyseSeries(
   if (dist.source === "gps" && series.channels.speed_front) analysisNotes.push("The front wheel speed reads nothing while the bike moves: distance comes from GPS instead.");
   dist.lapScaleRejected.forEach((r, k) => {
     if (Number.isFinite(r)) {
-      analysisNotes.push(`Lap ${laps[k].number}: the GPS path is ${((r - 1) * 100).toFixed(1)} % off the wheel distance, beyond ±5 %; the wheel distance is kept (a GPS gap or a wrong wheel circumference).`);
+      analysisNotes.push(`Lap ${laps[k]!.number}: the GPS path is ${((r - 1) * 100).toFixed(1)} % off the wheel distance, beyond ±5 %; the wheel distance is kept (a GPS gap or a wrong wheel circumference).`);
     }
   });
   if (engine && engine.ceilingRpm === null) analysisNotes.push(NO_REV_CEILING_NOTE);
@@ -328,7 +328,7 @@ export function analyseSeries(
       bestLap: best ? { number: best.number, lapTimeMs: best.lapTimeMs } : null,
       bestSectorLap: bestSectorLap(laps),
       topSpeedMs,
-      distanceM: hasDistance && n ? dist.distanceM[n - 1] : null,
+      distanceM: hasDistance && n ? dist.distanceM[n - 1]! : null,
       findingCounts: counts,
       engine,
       analysisNotes,

@@ -63,7 +63,7 @@ export async function seedHistory(h: HistoryInput): Promise<Record<string, numbe
   // Engine life: the engine of Bike 27 came from its last rebuild with 24 h and 3,900 km on it
   // (invented), which puts it past 80 % of its 30 h interval once the demo sessions are counted.
   const history = await sequelize.query<{ n: number }>("SELECT COUNT(*) AS n FROM engine_history WHERE engine_id = ?", { replacements: [h.engine.id], type: QueryTypes.SELECT });
-  if (Number(history[0].n) === 0) {
+  if (Number(history[0]!.n) === 0) {
     await sequelize.query(
       "INSERT INTO engine_history (team_id, engine_id, kind, on_date, from_bike_id, to_bike_id, hours_before, km_before, note, created_by) VALUES (?, ?, 'rebuild', '2031-02-20', NULL, NULL, 29.5, 4820, ?, ?)",
       { replacements: [teamId, h.engine.id, "Winter rebuild: pistons, rings, valve springs (invented)", h.engineerId], type: QueryTypes.INSERT },

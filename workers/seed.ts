@@ -23,6 +23,13 @@ import { demoTrackInput } from "./demo-track";
 import { ingestNow } from "./ingest/ingest-now";
 import { seedHistory } from "./seed-history";
 
+/** A seeded row by its name; a missing one is a bug in the seed lists, so say which. */
+function need<T>(map: Record<string, T>, key: string, what: string): T {
+  const v = map[key];
+  if (v === undefined) throw new Error(`seed: no ${what} entry "${key}"`);
+  return v;
+}
+
 const SAMPLE_DIR = path.join(config.root, "sample-logs", "files");
 
 const RIDER_B = DEMO_ROSTER.riders.b;
@@ -107,7 +114,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
       replacements: [teamId, userIds[u.role]],
       type: QueryTypes.SELECT,
     });
-    if (!m[0]) await auth.api.addMember({ body: { userId: userIds[u.role], role: u.role, organizationId: teamId } });
+    if (!m[0]) await auth.api.addMember({ body: { userId: need(userIds, u.role, "userIds"), role: u.role, organizationId: teamId } });
   }
 
   const riderUser = DEMO_USERS.find((u) => u.role === "rider")!;
@@ -172,7 +179,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
   const upload = opts.upload ?? uploadFromEnv();
   const utapi = upload ? new UTApi({ token: upload.token, apiUrl: upload.apiUrl, ingestUrl: upload.ingestUrl, logLevel: "Error" }) : null;
   // After the first event's sessions: a second event, a setup change with its effect, an engine nearing its rebuild.
-  const history = async () => Object.assign(sessionIds, await seedHistory({ sequelize, teamId, engineerId: userIds.engineer, rider: riderA, bike: bikes[BIKE_A], engine: engines[BIKE_A], track, utapi, say }));
+  const history = async () => Object.assign(sessionIds, await seedHistory({ sequelize, teamId, engineerId: need(userIds, "engineer", "userIds"), rider: riderA, bike: need(bikes, BIKE_A, "bikes"), engine: need(engines, BIKE_A, "engines"), track, utapi, say }));
   if (!upload || !utapi) {
     await history();
     say("no upload service configured (UPLOADTHING_TOKEN, UPLOADTHING_API_URL): demo sessions skipped — `npm start` runs one");
@@ -188,7 +195,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
       if (up.error || !up.data) throw new Error(`uploading ${d.file} to the upload service failed: ${up.error?.message ?? "no data"}`);
       ({ sessionId } = await registerUpload(sequelize, {
         teamId,
-        userId: userIds.engineer,
+        userId: need(userIds, "engineer", "userIds"),
         file: { key: up.data.key, name: d.file, size: up.data.size, ufsUrl: up.data.ufsUrl, fileHash: up.data.fileHash },
       }));
     }
@@ -199,7 +206,7 @@ export async function seedDemo(opts: SeedOptions = {}): Promise<SeedResult> {
       say(`${d.file}: already ingested (session ${sessionId})`);
       continue;
     }
-    await s.update({ title: d.title, kind: d.kind, riderId: (d.rider === "a" ? riderA : riderB).id, bikeId: bikes[d.bike].id, engineId: engines[d.bike].id, eventId: event.id });
+    await s.update({ title: d.title, kind: d.kind, riderId: (d.rider === "a" ? riderA : riderB).id, bikeId: need(bikes, d.bike, "bikes").id, engineId: need(engines, d.bike, "engines").id, eventId: event.id });
     if (s.status === "failed" || s.status === "uploaded") s = await prepareImport(sequelize, sessionId);
     if (s.status === "mapping") await confirmMapping(sequelize, teamId, sessionId, s.mapping as Mapping, d.profile);
     const outcome = await ingestNow(sequelize, sessionId, "seed");

@@ -20,7 +20,7 @@ export function SlipScatterSvg({ throttlePct, slip, targetSlip }: { throttlePct:
       ))}
       <line x1={L} x2={W - R} y1={y(targetSlip)} y2={y(targetSlip)} stroke="var(--color-alert-400)" strokeDasharray="6 4" />
       {throttlePct.map((t, i) => (
-        <circle key={i} cx={x(t).toFixed(1)} cy={y(slip[i]).toFixed(1)} r={1.4} fill="var(--color-signal-400)" fillOpacity={0.35} />
+        <circle key={i} cx={x(t).toFixed(1)} cy={y(slip[i]!).toFixed(1)} r={1.4} fill="var(--color-signal-400)" fillOpacity={0.35} />
       ))}
       <text x={(L + W - R) / 2} y={H - 2} textAnchor="middle" fontSize={11} fill="var(--color-ink-300)">Throttle (%)</text>
       <text x={12} y={(T + H - B) / 2} textAnchor="middle" fontSize={11} fill="var(--color-ink-300)" transform={`rotate(-90 12 ${(T + H - B) / 2})`}>Drive slip (%)</text>

@@ -73,7 +73,7 @@ export function ImportForm(props: ImportFormProps) {
   const errors = formState.errors;
 
   function onRoleChange(i: number, role: string) {
-    const col = props.columns[i];
+    const col = props.columns[i]!;
     if (role === "time") {
       setValue(`columns.${i}.unit`, TIME_UNIT[getValues("timeFormat")]);
       return;
@@ -157,7 +157,7 @@ export function ImportForm(props: ImportFormProps) {
               </thead>
               <tbody>
                 {fields.map((f, i) => {
-                  const col = props.columns[i];
+                  const col = props.columns[i]!;
                   const role = roles?.[i]?.role ?? col.role;
                   const unit = roles?.[i]?.unit ?? col.unit;
                   const choices = unitChoices(role, col.fileUnit, unit);

@@ -57,7 +57,7 @@ export function SessionDetailsFields({ options, idPrefix = "details" }: { option
         <label className="label" htmlFor={id("kind")}>Kind</label>
         <select id={id("kind")} className="field capitalize" aria-invalid={!!errors.kind} {...register("kind")}>
           {SESSION_KINDS.map((k) => (
-            <option key={k} value={k}>{k[0].toUpperCase() + k.slice(1)}</option>
+            <option key={k} value={k}>{k[0]!.toUpperCase() + k.slice(1)}</option>
           ))}
         </select>
         <FieldError id={`${id("kind")}-error`} message={errors.kind?.message} />

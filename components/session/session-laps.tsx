@@ -68,7 +68,7 @@ export async function SessionLaps({ data }: { data: ReturnType<typeof listSessio
   }
 
   const lib = laps; // a LapRow is a lib/laps Lap with the stored extras
-  const flying = laps.filter((l, i) => isFlyingLap(lib[i]));
+  const flying = laps.filter((l, i) => isFlyingLap(lib[i]!));
   const sectorCount = laps.reduce((m, l) => Math.max(m, l.sectorTimesMs.length), 0);
   const bestLapMs = flying.length ? Math.min(...flying.map((l) => l.lapTimeMs)) : null;
   const bestSectorMs = Array.from({ length: sectorCount }, (_, s) => {

@@ -17,22 +17,22 @@ function km(m: number): string {
 
 function OutlineWithGate({ outline, gate }: { outline: [number, number][]; gate: NonNullable<SessionTrackPanel["suggestion"]>["gate"] }) {
   const drawn = useMemo(() => {
-    const proj = toLocalMetres({ lat: outline[0][0], lon: outline[0][1] });
+    const proj = toLocalMetres({ lat: outline[0]![0]!, lon: outline[0]![1]! });
     const xs = outline.map((p) => proj.xM(p[1]));
     const ys = outline.map((p) => -proj.yM(p[0]));
     const minX = Math.min(...xs) - 40;
     const maxX = Math.max(...xs) + 40;
     const minY = Math.min(...ys) - 40;
     const maxY = Math.max(...ys) + 40;
-    const path = xs.map((x, i) => `${i ? "L" : "M"}${x.toFixed(1)} ${ys[i].toFixed(1)}`).join(" ");
+    const path = xs.map((x, i) => `${i ? "L" : "M"}${x.toFixed(1)} ${ys[i]!.toFixed(1)}`).join(" ");
     const g = [gate.a, gate.b].map((p) => [proj.xM(p.lon), -proj.yM(p.lat)] as const);
     return { viewBox: `${minX.toFixed(0)} ${minY.toFixed(0)} ${(maxX - minX).toFixed(0)} ${(maxY - minY).toFixed(0)}`, path, g, w: (maxX - minX) / 120 };
   }, [outline, gate]);
   return (
     <svg viewBox={drawn.viewBox} className="h-64 w-full max-w-md rounded-md bg-ink-950" role="img" aria-label="Outline of one lap with the suggested start/finish gate" data-testid="suggested-gate-map">
       <path d={drawn.path} fill="none" stroke="currentColor" className="text-trace-400" strokeWidth={drawn.w} strokeLinejoin="round" />
-      <line x1={drawn.g[0][0]} y1={drawn.g[0][1]} x2={drawn.g[1][0]} y2={drawn.g[1][1]} stroke="currentColor" className="text-signal-400" strokeWidth={drawn.w * 2.5} strokeLinecap="round" />
-      <circle cx={(drawn.g[0][0] + drawn.g[1][0]) / 2} cy={(drawn.g[0][1] + drawn.g[1][1]) / 2} r={drawn.w * 4} fill="none" stroke="currentColor" className="text-signal-400" strokeWidth={drawn.w} />
+      <line x1={drawn.g[0]![0]!} y1={drawn.g[0]![1]!} x2={drawn.g[1]![0]!} y2={drawn.g[1]![1]!} stroke="currentColor" className="text-signal-400" strokeWidth={drawn.w * 2.5} strokeLinecap="round" />
+      <circle cx={(drawn.g[0]![0]! + drawn.g[1]![0]!) / 2} cy={(drawn.g[0]![1]! + drawn.g[1]![1]!) / 2} r={drawn.w * 4} fill="none" stroke="currentColor" className="text-signal-400" strokeWidth={drawn.w} />
     </svg>
   );
 }

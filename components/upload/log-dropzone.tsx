@@ -115,8 +115,8 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
       setBusy(true);
       const done: string[] = [];
       for (let n = 0; n < files.length; n++) {
-        const file = files[n];
-        const key = fresh[n].key;
+        const file = files[n]!;
+        const key = fresh[n]!.key;
         if (file.size > maxBytes) {
           patch(key, { state: "error", message: explain({ code: "TOO_LARGE" }, file, maxBytes) });
           continue;
@@ -130,7 +130,7 @@ export function LogDropzone({ maxBytes, extensions }: { maxBytes: number; extens
       }
       current.current = null;
       setBusy(false);
-      if (files.length === 1 && done.length === 1) router.push(done[0]);
+      if (files.length === 1 && done.length === 1) router.push(done[0]!);
     },
     [maxBytes, patch, router, uploadOne],
   );

@@ -126,12 +126,12 @@ export function pitLaneTimes(series: SeriesLike, gates: TrackGates | null): { st
       if (openedAt === null) openedAt = e.t;
     } else {
       if (openedAt !== null) out.push({ startTimeS: openedAt, endTimeS: e.t });
-      else if (!seenAny) out.push({ startTimeS: series.timeS[0], endTimeS: e.t });
+      else if (!seenAny) out.push({ startTimeS: series.timeS[0]!, endTimeS: e.t });
       openedAt = null;
     }
     seenAny = true;
   }
-  if (openedAt !== null) out.push({ startTimeS: openedAt, endTimeS: series.timeS[series.timeS.length - 1] });
+  if (openedAt !== null) out.push({ startTimeS: openedAt, endTimeS: series.timeS[series.timeS.length - 1]! });
   return boundPitIntervals(out, fixes, gates.pitExit);
 }
 
@@ -154,12 +154,12 @@ function boundPitIntervals(
   return intervals.map((iv) => {
     let best = Infinity;
     let bestT = NaN;
-    for (let k = lowerBound(fixes.timeS, iv.startTimeS); k < n && fixes.timeS[k] < iv.endTimeS; k++) {
-      const d = haversineM(fixes.latDeg[k], fixes.lonDeg[k], mx, my);
+    for (let k = lowerBound(fixes.timeS, iv.startTimeS); k < n && fixes.timeS[k]! < iv.endTimeS; k++) {
+      const d = haversineM(fixes.latDeg[k]!, fixes.lonDeg[k]!, mx, my);
       if (d < nearM) {
         if (d < best) {
           best = d;
-          bestT = fixes.timeS[k];
+          bestT = fixes.timeS[k]!;
         }
       } else if (Number.isFinite(best)) {
         return { startTimeS: iv.startTimeS, endTimeS: bestT };
@@ -178,9 +178,9 @@ function positionNear(series: SeriesLike, i: number): { lat: number | null; lon:
   // 200 samples is 2 s at 100 Hz: far more than one fix interval of any logger.
   for (let k = 0; k < 200; k++) {
     const f = i + k;
-    if (f < n && Number.isFinite(lat[f]) && Number.isFinite(lon[f])) return { lat: lat[f], lon: lon[f] };
+    if (f < n && Number.isFinite(lat[f]!) && Number.isFinite(lon[f]!)) return { lat: lat[f]!, lon: lon[f]! };
     const b = i - k;
-    if (b >= 0 && Number.isFinite(lat[b]) && Number.isFinite(lon[b])) return { lat: lat[b], lon: lon[b] };
+    if (b >= 0 && Number.isFinite(lat[b]!) && Number.isFinite(lon[b]!)) return { lat: lat[b]!, lon: lon[b]! };
   }
   return { lat: null, lon: null };
 }
@@ -234,7 +234,7 @@ export function analyseSeries(
     const s = lapStats(series, lap, series.channels.engine_rpm ? ["engine_rpm"] : []);
     return {
       ...lap,
-      distanceM: hasDistance ? dist.lapLengthM[k] : null,
+      distanceM: hasDistance ? dist.lapLengthM[k]! : null,
       topSpeedMps: finiteOrNull(s.topSpeedMps),
       stats: {
         minSpeedMps: finiteOrNull(s.minSpeedMps),
@@ -265,7 +265,7 @@ export function analyseSeries(
   const lapIndex = new Map(laps.map((l, k) => [l.number, k]));
   const analysedFindings: AnalysedFinding[] = findings.map((f) => {
     const k = f.lapNumber == null ? undefined : lapIndex.get(f.lapNumber);
-    const distanceM = k === undefined || !hasDistance ? null : dist.distanceM[f.startIndex] - dist.lapStartDistanceM[k];
+    const distanceM = k === undefined || !hasDistance ? null : dist.distanceM[f.startIndex]! - dist.lapStartDistanceM[k]!;
     return {
       ...f,
       distanceM: finiteOrNull(distanceM),
@@ -280,7 +280,7 @@ export function analyseSeries(
   for (const l of analysedLaps) if (l.topSpeedMps != null && (topSpeedMps === null || l.topSpeedMps > topSpeedMps)) topSpeedMps = l.topSpeedMps;
   if (laps.length === 0) {
     const v = series.channels.speed_front ?? series.channels.gps_speed;
-    if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]) && (topSpeedMps === null || v[i] > topSpeedMps)) topSpeedMps = v[i];
+    if (v) for (let i = 0; i < v.length; i++) if (Number.isFinite(v[i]!) && (topSpeedMps === null || v[i]! > topSpeedMps)) topSpeedMps = v[i]!;
   }
   const counts: Partial<Record<FindingKind, number>> = {};
   for (const f of events) counts[f.kind] = (counts[f.kind] ?? 0) + 1;
@@ -310,7 +310,7 @@ export function analyseSeries(
   if (dist.source === "gps" && series.channels.speed_front) analysisNotes.push("The front wheel speed reads nothing while the bike moves: distance comes from GPS instead.");
   dist.lapScaleRejected.forEach((r, k) => {
     if (Number.isFinite(r)) {
-      analysisNotes.push(`Lap ${laps[k].number}: the GPS path is ${((r - 1) * 100).toFixed(1)} % off the wheel distance, beyond ±5 %; the wheel distance is kept (a GPS gap or a wrong wheel circumference).`);
+      analysisNotes.push(`Lap ${laps[k]!.number}: the GPS path is ${((r - 1) * 100).toFixed(1)} % off the wheel distance, beyond ±5 %; the wheel distance is kept (a GPS gap or a wrong wheel circumference).`);
     }
   });
   if (engine && engine.ceilingRpm === null) analysisNotes.push(NO_REV_CEILING_NOTE);
@@ -325,7 +325,7 @@ export function analyseSeries(
       bestLap: best ? { number: best.number, lapTimeMs: best.lapTimeMs } : null,
       bestSectorLap: bestSectorLap(laps),
       topSpeedMps,
-      distanceM: hasDistance && n ? dist.distanceM[n - 1] : null,
+      distanceM: hasDistance && n ? dist.distanceM[n - 1]! : null,
       findingCounts: counts,
       engine,
       analysisNotes,

@@ -107,9 +107,9 @@ export function lapRange(timeS: Float64Array, lap: { startTimeS: number; endTime
 
 /** Distance from the lap's start for samples [from, to). */
 export function lapDistance(base: Pick<AnalysisBase, "dist">, lapIdx: number, from: number, to: number): Float64Array {
-  const off = base.dist.lapStartDistanceM[lapIdx];
+  const off = base.dist.lapStartDistanceM[lapIdx]!;
   const out = new Float64Array(to - from);
-  for (let i = from; i < to; i++) out[i - from] = base.dist.distanceM[i] - off;
+  for (let i = from; i < to; i++) out[i - from] = base.dist.distanceM[i]! - off;
   return out;
 }
 

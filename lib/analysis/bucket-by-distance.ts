@@ -21,20 +21,20 @@ export function bucketByDistance(
   const sum = new Float64Array(nb);
   const cnt = new Float64Array(nb);
   for (let i = 0; i < distanceM.length; i++) {
-    const b = Math.floor(distanceM[i] / bucketM);
+    const b = Math.floor(distanceM[i]! / bucketM);
     if (!(b >= 0 && b < nb)) continue;
-    const p = peakOf[i];
-    if (Number.isFinite(p) && !(Math.abs(p) <= Math.abs(peak[b]))) peak[b] = p;
-    const m = meanOf ? meanOf[i] : NaN;
+    const p = peakOf[i]!;
+    if (Number.isFinite(p) && !(Math.abs(p) <= Math.abs(peak[b]!))) peak[b] = p;
+    const m = meanOf ? meanOf[i]! : NaN;
     if (Number.isFinite(m)) {
-      sum[b] += m;
-      cnt[b]++;
+      sum[b]! += m;
+      cnt[b]!++;
     }
   }
   const mean = new Float64Array(nb);
   const dist = new Float64Array(nb);
   for (let b = 0; b < nb; b++) {
-    mean[b] = cnt[b] ? sum[b] / cnt[b] : NaN;
+    mean[b] = cnt[b]! ? sum[b]! / cnt[b]! : NaN;
     dist[b] = (b + 0.5) * bucketM;
   }
   return { distanceM: dist, peak, mean };

@@ -125,8 +125,8 @@ async function resolveSession(cookieHeader: string): Promise<ResolvedSession | n
       ORDER BY m.createdAt ASC`,
     { replacements: [token], type: QueryTypes.SELECT },
   );
-  if (rows.length === 0) return null;
   const first = rows[0];
+  if (!first) return null;
   const expiresAtMs = new Date(first.expiresAt).getTime();
   const { expiresIn, updateAge } = ac.sessionConfig;
   if (expiresAtMs - expiresIn * 1000 + updateAge * 1000 <= Date.now()) {
@@ -152,8 +152,8 @@ export async function requireTeam(headers: Headers, opts: GuardOptions = {}): Pr
   const session = await resolveSessionCached(headers.get("cookie") ?? "");
   if (!session) throw unauthorized();
   const { memberships } = session;
-  if (memberships.length === 0) throw new NoTeamError();
   const active = memberships.find((m) => m.teamId === session.activeOrganizationId) ?? memberships[0];
+  if (!active) throw new NoTeamError();
   if (opts.roles && !opts.roles.includes(active.role)) throw forbidden();
   if (opts.permission && !roleCan(active.role, opts.permission)) throw forbidden();
   return { ...active, userId: session.userId, userName: session.userName, email: session.email, memberships };

@@ -49,7 +49,7 @@ function escapeHtml(s: string): string {
 // need the Next server build conditions just to load the auth options.
 async function mail(to: string, subject: string, text: string, linkUrl: string, linkLabel: string) {
   const { sendMail } = await import("../mail/send-mail");
-  const html = `<p>${escapeHtml(text.split("\n")[0])}</p><p><a href="${escapeHtml(linkUrl)}">${escapeHtml(linkLabel)}</a></p>`;
+  const html = `<p>${escapeHtml(text.split("\n")[0] ?? "")}</p><p><a href="${escapeHtml(linkUrl)}">${escapeHtml(linkLabel)}</a></p>`;
   await sendMail({ to, subject, text, html });
 }
 

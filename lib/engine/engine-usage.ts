@@ -35,12 +35,12 @@ export function engineUsage(series: SeriesLike, rpmThreshold: number, ceilingRpm
   let wasOver = false;
   let v = NaN;
   for (let i = 0; i < t.length; i++) {
-    const dt = i + 1 < t.length ? t[i + 1] - t[i] : 0;
+    const dt = i + 1 < t.length ? t[i + 1]! - t[i]! : 0;
     const step = dt > 0 && dt <= 1 ? dt : 0;
-    if (speed && Number.isFinite(speed[i])) v = speed[i];
+    if (speed && Number.isFinite(speed[i]!)) v = speed[i]!;
     if (Number.isFinite(v)) distanceM += v * step;
     if (!rpm) continue;
-    const r = rpm[i];
+    const r = rpm[i]!;
     if (!Number.isFinite(r)) continue;
     if (!(r <= maxRpm)) maxRpm = r;
     if (r > runningRpm) runningS += step;
@@ -48,8 +48,8 @@ export function engineUsage(series: SeriesLike, rpmThreshold: number, ceilingRpm
     const over = r > ceilingRpm;
     if (over) {
       aboveCeiling += step;
-      if (!wasOver && t[i] - lastOverT > 0.2) exceedances++;
-      lastOverT = t[i];
+      if (!wasOver && t[i]! - lastOverT > 0.2) exceedances++;
+      lastOverT = t[i]!;
     }
     wasOver = over;
   }

@@ -32,9 +32,9 @@ export function lapToGpx(lap: Lap, fixes: GpxFixes, meta: GpxMeta): string {
   const iso = (tS: number) => new Date(t0Ms + Math.round(tS * 1000)).toISOString();
   const trkpt: Record<string, unknown>[] = [];
   for (let i = 0; i < fixes.timeS.length; i++) {
-    const t = fixes.timeS[i];
-    const lat = fixes.latDeg[i];
-    const lon = fixes.lonDeg[i];
+    const t = fixes.timeS[i]!;
+    const lat = fixes.latDeg[i]!;
+    const lon = fixes.lonDeg[i]!;
     if (t < lap.startTimeS || t > lap.endTimeS || !Number.isFinite(lat) || !Number.isFinite(lon)) continue;
     const pt: Record<string, unknown> = { "@_lat": lat.toFixed(7), "@_lon": lon.toFixed(7) };
     const alt = fixes.altM?.[i];

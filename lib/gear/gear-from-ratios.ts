@@ -25,14 +25,14 @@ export function gearFromRatios(
   const out = new Uint8Array(n);
   const wheelRpmPerMps = 60 / bike.rearCircumferenceM;
   for (let i = 0; i < n; i++) {
-    const v = rearSpeedMps[i];
-    const r = rpm[i];
+    const v = rearSpeedMps[i]!;
+    const r = rpm[i]!;
     if (!(v >= minSpeedMps) || !(r > 0)) continue;
     const measured = r / (v * wheelRpmPerMps);
     let best = -1;
     let bestErr = Infinity;
     for (let g = 0; g < ratios.length; g++) {
-      const err = Math.abs(measured - ratios[g]) / ratios[g];
+      const err = Math.abs(measured - ratios[g]!) / ratios[g]!;
       if (err < bestErr) {
         bestErr = err;
         best = g;

@@ -41,10 +41,10 @@ export function shiftEvents(
   // Stable stretches: [gear, first index, last index] holding at least minHoldS.
   const stretches: Array<[number, number, number]> = [];
   for (let i = 0; i < n; i++) {
-    const g = gear[i];
+    const g = gear[i]!;
     let j = i;
     while (j + 1 < n && gear[j + 1] === g) j++;
-    if (g > 0 && timeS[j] - timeS[i] >= minHoldS - 1e-9) {
+    if (g > 0 && timeS[j]! - timeS[i]! >= minHoldS - 1e-9) {
       const last = stretches[stretches.length - 1];
       if (last && last[0] === g) last[2] = j;
       else stretches.push([g, i, j]);
@@ -54,17 +54,17 @@ export function shiftEvents(
 
   const events: ShiftEvent[] = [];
   for (let k = 1; k < stretches.length; k++) {
-    const [g0, , end0] = stretches[k - 1];
-    const [g1, start1] = stretches[k];
-    const shiftTimeS = timeS[start1] - timeS[end0];
+    const [g0, , end0] = stretches[k - 1]!;
+    const [g1, start1] = stretches[k]!;
+    const shiftTimeS = timeS[start1]! - timeS[end0]!;
     if (shiftTimeS > maxShiftS) continue;
     const up = g1 > g0;
     let throttleHeld = throttlePct !== undefined;
-    if (throttlePct) for (let i = end0; i <= start1; i++) if (!(throttlePct[i] >= minThrottle)) throttleHeld = false;
-    const rpmBefore = rpm[end0];
-    const rpmAfter = rpm[start1];
+    if (throttlePct) for (let i = end0; i <= start1; i++) if (!(throttlePct[i]! >= minThrottle)) throttleHeld = false;
+    const rpmBefore = rpm[end0]!;
+    const rpmAfter = rpm[start1]!;
     events.push({
-      timeS: timeS[start1],
+      timeS: timeS[start1]!,
       index: start1,
       fromGear: g0,
       toGear: g1,

@@ -10,13 +10,13 @@ export interface TimeInGear {
  */
 export function timeInGear(gear: ArrayLike<number>, timeS: Float64Array, maxStepS = 1): TimeInGear[] {
   let maxGear = 0;
-  for (let i = 0; i < gear.length; i++) if (gear[i] > maxGear) maxGear = gear[i];
+  for (let i = 0; i < gear.length; i++) if (gear[i]! > maxGear) maxGear = gear[i]!;
   const acc = new Float64Array(maxGear + 1);
   let total = 0;
   for (let i = 0; i + 1 < gear.length; i++) {
-    const dt = timeS[i + 1] - timeS[i];
+    const dt = timeS[i + 1]! - timeS[i]!;
     if (!(dt > 0 && dt <= maxStepS)) continue;
-    acc[gear[i]] += dt;
+    acc[gear[i]!]! += dt;
     total += dt;
   }
   return Array.from(acc, (t, g) => ({ gear: g, timeS: t, pct: total > 0 ? (100 * t) / total : 0 }));

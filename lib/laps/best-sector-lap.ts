@@ -21,8 +21,9 @@ export interface BestSectorLap {
  */
 export function bestSectorLap(laps: readonly Lap[]): BestSectorLap | null {
   const flying = laps.filter(isFlyingLap);
-  if (flying.length === 0) return null;
-  const count = flying[0].sectorTimesMs.length;
+  const firstLap = flying[0];
+  if (!firstLap) return null;
+  const count = firstLap.sectorTimesMs.length;
   const sectors: BestSector[] = [];
   let timeMs = 0;
   for (let s = 0; s < count; s++) {

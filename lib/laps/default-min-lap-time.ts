@@ -14,8 +14,8 @@ export function defaultMinLapTimeS(crossingTimesS: ArrayLike<number>): number {
   const n = crossingTimesS.length - 1;
   if (n < 1) return MIN_LAP_TIME_FLOOR_S;
   const d = new Float64Array(n);
-  for (let i = 0; i < n; i++) d[i] = crossingTimesS[i + 1] - crossingTimesS[i];
+  for (let i = 0; i < n; i++) d[i] = crossingTimesS[i + 1]! - crossingTimesS[i]!;
   d.sort();
-  const median = n % 2 === 1 ? d[(n - 1) / 2] : 0.5 * (d[n / 2 - 1] + d[n / 2]);
+  const median = n % 2 === 1 ? d[(n - 1) / 2]! : 0.5 * (d[n / 2 - 1]! + d[n / 2]!);
   return Math.max(MIN_LAP_TIME_FLOOR_S, MIN_LAP_TIME_MEDIAN_SHARE * median);
 }

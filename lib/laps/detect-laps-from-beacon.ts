@@ -28,11 +28,11 @@ export function detectLapsFromBeacon(
   let first = NaN;
   let last = NaN;
   for (let i = 0; i < timeS.length; i++) {
-    const v = beacon[i];
+    const v = beacon[i]!;
     if (!Number.isFinite(v)) continue;
-    if (Number.isNaN(first)) first = timeS[i];
-    last = timeS[i];
-    if (Number.isFinite(prev) && prev <= threshold && v > threshold) edges.push(timeS[i]);
+    if (Number.isNaN(first)) first = timeS[i]!;
+    last = timeS[i]!;
+    if (Number.isFinite(prev) && prev <= threshold && v > threshold) edges.push(timeS[i]!);
     prev = v;
   }
   if (edges.length === 0) return [];

@@ -41,7 +41,7 @@ export function detectLaps(series: SeriesLike, track: TrackGates, options: Detec
   const minLapTimeS = options.minLapTimeS ?? track.minLapTimeS ?? defaultMinLapTimeS(raw);
   const lineTimesS = dropDoubleCounts(raw, minLapTimeS);
   const sectorCount = track.sectors.length + 1;
-  const laps = splitIntoLaps(lineTimesS, fixes.timeS[0], fixes.timeS[n - 1], sectorCount);
+  const laps = splitIntoLaps(lineTimesS, fixes.timeS[0]!, fixes.timeS[n - 1]!, sectorCount);
   if (laps.length === 0) return laps;
 
   const sectorGateTimes = track.sectors.map((g) => times(g));
@@ -63,8 +63,8 @@ function markPitFlags(lap: Lap, pitEntryS: Float64Array, pitExitS: Float64Array)
   let inPitLane = false;
   let sawEvent = false;
   for (;;) {
-    const te = i < pitEntryS.length && pitEntryS[i] <= lap.endTimeS ? pitEntryS[i] : Infinity;
-    const tx = j < pitExitS.length && pitExitS[j] <= lap.endTimeS ? pitExitS[j] : Infinity;
+    const te = i < pitEntryS.length && pitEntryS[i]! <= lap.endTimeS ? pitEntryS[i]! : Infinity;
+    const tx = j < pitExitS.length && pitExitS[j]! <= lap.endTimeS ? pitExitS[j]! : Infinity;
     if (te === Infinity && tx === Infinity) break;
     if (te <= tx) {
       inPitLane = true;
@@ -91,12 +91,12 @@ function fillSectors(lap: Lap, sectorGateTimes: Float64Array[], startsOnLine: bo
   boundaryMs[0] = startsOnLine ? 0 : NaN;
   let prevS = lap.startTimeS;
   for (let g = 0; g < k; g++) {
-    const ts = sectorGateTimes[g];
+    const ts = sectorGateTimes[g]!;
     // First crossing strictly after the previous boundary (upper bound of prevS).
     let idx = lowerBound(ts, prevS);
-    while (idx < ts.length && ts[idx] <= prevS) idx++;
-    if (idx < ts.length && ts[idx] < lap.endTimeS) {
-      prevS = ts[idx];
+    while (idx < ts.length && ts[idx]! <= prevS) idx++;
+    if (idx < ts.length && ts[idx]! < lap.endTimeS) {
+      prevS = ts[idx]!;
       boundaryMs[g + 1] = Math.round((prevS - lap.startTimeS) * 1000);
     } else {
       boundaryMs[g + 1] = NaN;
@@ -104,7 +104,7 @@ function fillSectors(lap: Lap, sectorGateTimes: Float64Array[], startsOnLine: bo
   }
   boundaryMs[k + 1] = endsOnLine ? lap.lapTimeMs : NaN;
   for (let s = 0; s <= k; s++) {
-    const d = boundaryMs[s + 1] - boundaryMs[s];
+    const d = boundaryMs[s + 1]! - boundaryMs[s]!;
     lap.sectorTimesMs[s] = Number.isFinite(d) ? d : null;
   }
 }

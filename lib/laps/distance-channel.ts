@@ -28,11 +28,11 @@ export const MAX_RESCALE = 0.05;
 function interpAt(ts: Float64Array, ys: Float64Array, t: number): number {
   const n = ts.length;
   if (n === 0) return NaN;
-  if (t <= ts[0]) return ys[0];
-  if (t >= ts[n - 1]) return ys[n - 1];
+  if (t <= ts[0]!) return ys[0]!;
+  if (t >= ts[n - 1]!) return ys[n - 1]!;
   const k = lowerBound(ts, t);
-  const t0 = ts[k - 1];
-  return ys[k - 1] + ((ys[k] - ys[k - 1]) * (t - t0)) / (ts[k] - t0);
+  const t0 = ts[k - 1]!;
+  return ys[k - 1]! + ((ys[k]! - ys[k - 1]!) * (t - t0)) / (ts[k]! - t0);
 }
 
 /**
@@ -46,23 +46,23 @@ function integrateSpeed(timeS: Float64Array, speedMps: NumericArray): Float64Arr
   const cum = new Float64Array(n);
   let j = -1; // last finite sample
   for (let i = 0; i < n; i++) {
-    const v = speedMps[i];
+    const v = speedMps[i]!;
     if (!Number.isFinite(v)) continue;
     if (j < 0) {
       j = i;
       continue; // cum[0..i] stay 0
     }
-    const tj = timeS[j];
-    const vj = speedMps[j];
-    const dt = timeS[i] - tj;
+    const tj = timeS[j]!;
+    const vj = speedMps[j]!;
+    const dt = timeS[i]! - tj;
     for (let k = j + 1; k <= i; k++) {
-      const tau = timeS[k] - tj;
+      const tau = timeS[k]! - tj;
       const vk = vj + ((v - vj) * tau) / dt;
-      cum[k] = cum[j] + 0.5 * (vj + vk) * tau;
+      cum[k] = cum[j]! + 0.5 * (vj + vk) * tau;
     }
     j = i;
   }
-  for (let k = j + 1; k < n && j >= 0; k++) cum[k] = cum[j];
+  for (let k = j + 1; k < n && j >= 0; k++) cum[k] = cum[j]!;
   return cum;
 }
 
@@ -87,13 +87,13 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
   // GPS path length at each fix.
   const gpsCum = new Float64Array(nf);
   if (nf > 0) {
-    const proj = toLocalMetres({ lat: fixes.latDeg[0], lon: fixes.lonDeg[0] });
-    let px = proj.xM(fixes.lonDeg[0]);
-    let py = proj.yM(fixes.latDeg[0]);
+    const proj = toLocalMetres({ lat: fixes.latDeg[0]!, lon: fixes.lonDeg[0]! });
+    let px = proj.xM(fixes.lonDeg[0]!);
+    let py = proj.yM(fixes.latDeg[0]!);
     for (let i = 1; i < nf; i++) {
-      const x = proj.xM(fixes.lonDeg[i]);
-      const y = proj.yM(fixes.latDeg[i]);
-      gpsCum[i] = gpsCum[i - 1] + Math.hypot(x - px, y - py);
+      const x = proj.xM(fixes.lonDeg[i]!);
+      const y = proj.yM(fixes.latDeg[i]!);
+      gpsCum[i] = gpsCum[i - 1]! + Math.hypot(x - px, y - py);
       px = x;
       py = y;
     }
@@ -118,18 +118,18 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
     // Walk the fixes alongside the clock: both ascend, so no search per sample.
     let k = 0;
     for (let i = 0; i < n; i++) {
-      const ti = t[i];
-      while (k < nf && fixes.timeS[k] < ti) k++;
+      const ti = t[i]!;
+      while (k < nf && fixes.timeS[k]! < ti) k++;
       if (k === 0) distanceM[i] = 0;
-      else if (k === nf) distanceM[i] = gpsCum[nf - 1];
+      else if (k === nf) distanceM[i] = gpsCum[nf - 1]!;
       else {
-        const t0 = fixes.timeS[k - 1];
-        distanceM[i] = gpsCum[k - 1] + ((gpsCum[k] - gpsCum[k - 1]) * (ti - t0)) / (fixes.timeS[k] - t0);
+        const t0 = fixes.timeS[k - 1]!;
+        distanceM[i] = gpsCum[k - 1]! + ((gpsCum[k]! - gpsCum[k - 1]!) * (ti - t0)) / (fixes.timeS[k]! - t0);
       }
     }
     for (let l = 0; l < nLaps; l++) {
-      lapStartDistanceM[l] = gpsAt(laps[l].startTimeS);
-      lapLengthM[l] = gpsAt(laps[l].endTimeS) - lapStartDistanceM[l];
+      lapStartDistanceM[l] = gpsAt(laps[l]!.startTimeS);
+      lapLengthM[l] = gpsAt(laps[l]!.endTimeS) - lapStartDistanceM[l]!;
     }
     return { distanceM, lapStartDistanceM, lapLengthM, lapScale, source: "gps", lapScaleRejected };
   }
@@ -140,19 +140,19 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
   const wheelStart = new Float64Array(nLaps);
   const wheelEnd = new Float64Array(nLaps);
   for (let l = 0; l < nLaps; l++) {
-    wheelStart[l] = interpAt(t, w, laps[l].startTimeS);
-    wheelEnd[l] = interpAt(t, w, laps[l].endTimeS);
+    wheelStart[l] = interpAt(t, w, laps[l]!.startTimeS);
+    wheelEnd[l] = interpAt(t, w, laps[l]!.endTimeS);
   }
   for (let l = 0; l < nLaps; l++) {
-    const wheelLen = wheelEnd[l] - wheelStart[l];
-    const gpsLen = nf > 1 ? gpsAt(laps[l].endTimeS) - gpsAt(laps[l].startTimeS) : NaN;
+    const wheelLen = wheelEnd[l]! - wheelStart[l]!;
+    const gpsLen = nf > 1 ? gpsAt(laps[l]!.endTimeS) - gpsAt(laps[l]!.startTimeS) : NaN;
     // Rescale only when both lengths are real distances (a lap spent parked has neither).
     if (wheelLen > 1 && gpsLen > 1) {
       const ratio = gpsLen / wheelLen;
       if (Math.abs(ratio - 1) <= MAX_RESCALE) lapScale[l] = ratio;
       else lapScaleRejected[l] = ratio;
     }
-    lapLengthM[l] = lapScale[l] * wheelLen;
+    lapLengthM[l] = lapScale[l]! * wheelLen;
   }
 
   // Piecewise-linear map from wheel distance to session distance: anchor (time, wheel, distance)
@@ -163,15 +163,15 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
   let lap = 0;
   let atStart = true; // next event is laps[lap].startTimeS, else its endTimeS
   for (let i = 0; i < n; i++) {
-    const ti = t[i];
+    const ti = t[i]!;
     while (lap < nLaps) {
-      const ev = atStart ? laps[lap].startTimeS : laps[lap].endTimeS;
+      const ev = atStart ? laps[lap]!.startTimeS : laps[lap]!.endTimeS;
       if (ev > ti) break;
-      const wt = atStart ? wheelStart[lap] : wheelEnd[lap];
+      const wt = atStart ? wheelStart[lap]! : wheelEnd[lap]!;
       anchorD += scale * (wt - anchorW);
       anchorW = wt;
       if (atStart) {
-        scale = lapScale[lap];
+        scale = lapScale[lap]!;
         lapStartDistanceM[lap] = anchorD;
         atStart = false;
       } else {
@@ -181,11 +181,11 @@ export function distanceChannel(series: SeriesLike, laps: readonly Lap[]): Dista
       }
     }
     // In place: w[i] is read here for the last time.
-    w[i] = anchorD + scale * (w[i] - anchorW);
+    w[i] = anchorD + scale * (w[i]! - anchorW);
   }
   // Laps starting after the last sample (should not happen) still get an offset.
   for (; lap < nLaps; lap++) {
-    if (atStart) lapStartDistanceM[lap] = anchorD + scale * (wheelStart[lap] - anchorW);
+    if (atStart) lapStartDistanceM[lap] = anchorD + scale * (wheelStart[lap]! - anchorW);
     atStart = true;
   }
   return { distanceM: w, lapStartDistanceM, lapLengthM, lapScale, source: live!.role, lapScaleRejected };

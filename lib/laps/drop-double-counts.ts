@@ -7,7 +7,7 @@ export function dropDoubleCounts(crossingTimesS: ArrayLike<number>, minLapTimeS:
   const kept: number[] = [];
   let last = -Infinity;
   for (let i = 0; i < crossingTimesS.length; i++) {
-    const t = crossingTimesS[i];
+    const t = crossingTimesS[i]!;
     if (t - last >= minLapTimeS) {
       kept.push(t);
       last = t;

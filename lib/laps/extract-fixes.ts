@@ -27,7 +27,7 @@ export function extractFixes(series: SeriesLike): SeriesFixes {
   const t = series.timeS;
   let n = 0;
   if (lat && lon) {
-    for (let i = 0; i < t.length; i++) if (validFix(lat[i], lon[i])) n++;
+    for (let i = 0; i < t.length; i++) if (validFix(lat[i]!, lon[i]!)) n++;
   }
   const out: SeriesFixes = {
     timeS: new Float64Array(n),
@@ -41,14 +41,14 @@ export function extractFixes(series: SeriesLike): SeriesFixes {
   const { timeS, latDeg, lonDeg, sampleIndex, speedMps } = out;
   let k = 0;
   for (let i = 0; i < t.length; i++) {
-    const la = lat[i];
-    const lo = lon[i];
+    const la = lat[i]!;
+    const lo = lon[i]!;
     if (!validFix(la, lo)) continue;
-    timeS[k] = t[i];
+    timeS[k] = t[i]!;
     latDeg[k] = la;
     lonDeg[k] = lo;
     sampleIndex[k] = i;
-    speedMps[k] = spd ? spd[i] : NaN;
+    speedMps[k] = spd ? spd[i]! : NaN;
     k++;
   }
   return out;

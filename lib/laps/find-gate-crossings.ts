@@ -50,18 +50,18 @@ export function findGateCrossings(
   let py = 0;
   let pSide = 0;
   for (let i = 0; i < timeS.length; i++) {
-    const lat = latDeg[i];
-    const lon = lonDeg[i];
+    const lat = latDeg[i]!;
+    const lon = lonDeg[i]!;
     if (!Number.isFinite(lat) || !Number.isFinite(lon)) continue;
     const x = proj.xM(lon);
     const y = proj.yM(lat);
     const side = sideOfLine(0, 0, bx, by, x, y);
     // Cheap reject: no change of side (points on the line count as right, as in segmentIntersection).
-    if (prev >= 0 && (pSide > 0) !== (side > 0) && timeS[i] - timeS[prev] <= maxGapS) {
+    if (prev >= 0 && (pSide > 0) !== (side > 0) && timeS[i]! - timeS[prev]! <= maxGapS) {
       const hit = segmentIntersection(px, py, x, y, 0, 0, bx, by);
       if (hit && (want === "both" || (want === "forward") === (hit.direction === 1))) {
-        const t0 = timeS[prev];
-        out.push({ timeS: t0 + hit.u * (timeS[i] - t0), fixIndex: prev, u: hit.u, direction: hit.direction });
+        const t0 = timeS[prev]!;
+        out.push({ timeS: t0 + hit.u * (timeS[i]! - t0), fixIndex: prev, u: hit.u, direction: hit.direction });
       }
     }
     prev = i;

@@ -26,7 +26,7 @@ function held(x: NumericArray): Float64Array {
   const out = new Float64Array(x.length);
   let last = NaN;
   for (let i = 0; i < x.length; i++) {
-    if (Number.isFinite(x[i])) last = x[i];
+    if (Number.isFinite(x[i]!)) last = x[i]!;
     out[i] = last;
   }
   return out;
@@ -50,12 +50,12 @@ export function checkWheelSensor(series: SeriesLike, role: "speed_front" | "spee
   let nothing = 0;
   let refMax = 0;
   for (let i = 0; i + 1 < t.length; i++) {
-    const r = ref[i];
+    const r = ref[i]!;
     if (!(r > MOVING_MS)) continue;
-    const dt = t[i + 1] - t[i];
+    const dt = t[i + 1]! - t[i]!;
     moving += dt;
     if (r > refMax) refMax = r;
-    if (!(Math.abs(w[i]) >= DEAD_BELOW_MS)) nothing += dt;
+    if (!(Math.abs(w[i]!) >= DEAD_BELOW_MS)) nothing += dt;
   }
   if (moving < MIN_MOVING_S) return null;
   const share = nothing / moving;

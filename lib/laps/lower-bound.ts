@@ -4,7 +4,7 @@ export function lowerBound(sorted: ArrayLike<number>, value: number, from = 0, t
   let hi = to;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
-    if (sorted[mid] < value) lo = mid + 1;
+    if (sorted[mid]! < value) lo = mid + 1;
     else hi = mid;
   }
   return lo;

@@ -14,7 +14,7 @@ export function markSuspectLaps(laps: Lap[], factor = SUSPECT_LAP_FACTOR): Lap[]
   if (candidates.length < 2) return [];
   const times = candidates.map((l) => l.lapTimeMs).sort((a, b) => a - b);
   const k = times.length;
-  const median = k % 2 ? times[k >> 1] : 0.5 * (times[(k >> 1) - 1] + times[k >> 1]);
+  const median = k % 2 ? times[k >> 1]! : 0.5 * (times[(k >> 1) - 1]! + times[k >> 1]!);
   const marked: Lap[] = [];
   for (const l of candidates) {
     if (l.lapTimeMs > factor * median) {

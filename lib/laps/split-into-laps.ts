@@ -30,10 +30,10 @@ export function splitIntoLaps(
       complete,
     });
   };
-  const first = lineTimesS[0];
+  const first = lineTimesS[0]!;
   if (first - logStartS >= MIN_PARTIAL_LAP_S) push(logStartS, first, false, true, false);
-  for (let i = 0; i + 1 < lineTimesS.length; i++) push(lineTimesS[i], lineTimesS[i + 1], true, false, false);
-  const last = lineTimesS[lineTimesS.length - 1];
+  for (let i = 0; i + 1 < lineTimesS.length; i++) push(lineTimesS[i]!, lineTimesS[i + 1]!, true, false, false);
+  const last = lineTimesS[lineTimesS.length - 1]!;
   if (logEndS - last >= MIN_PARTIAL_LAP_S) push(last, logEndS, false, false, true);
   return laps;
 }

@@ -47,7 +47,7 @@ export function lapFigures(laps: readonly RecordLap[]): LapFigures {
     flyingLapCount: flying.length,
     bestLapMs: best?.lapTimeMs ?? null,
     bestLapNumber: best?.number ?? null,
-    bestThreeMeanMs: sorted.length >= 3 ? (sorted[0].lapTimeMs + sorted[1].lapTimeMs + sorted[2].lapTimeMs) / 3 : null,
+    bestThreeMeanMs: sorted.length >= 3 ? (sorted[0]!.lapTimeMs + sorted[1]!.lapTimeMs + sorted[2]!.lapTimeMs) / 3 : null,
     topSpeedMps: top,
     bestSectorsMs: bestSectors(flying),
   };
@@ -59,7 +59,7 @@ function bestSectors(flying: readonly RecordLap[]): number[] | null {
     const s = l.sectorTimesMs;
     if (!s || s.length === 0) continue;
     out ??= s.map(() => Infinity);
-    for (let i = 0; i < Math.min(out.length, s.length); i++) if (Number.isFinite(s[i]) && s[i] > 0 && s[i] < out[i]) out[i] = s[i];
+    for (let i = 0; i < Math.min(out.length, s.length); i++) if (Number.isFinite(s[i]!) && s[i]! > 0 && s[i]! < out[i]!) out[i] = s[i]!;
   }
   return out && out.every(Number.isFinite) ? out : null;
 }

@@ -52,15 +52,15 @@ export function setupEffects(sessions: readonly EffectSession[], fieldOrder: rea
   for (const list of groups.values()) {
     list.sort((a, b) => (a.startedAt ?? "").localeCompare(b.startedAt ?? "") || a.sessionId - b.sessionId);
     for (let i = 1; i < list.length; i++) {
-      const before = list[i - 1];
-      const after = list[i];
+      const before = list[i - 1]!;
+      const after = list[i]!;
       const changes = fieldOrder
-        .filter((f) => (before.setup![f] ?? null) !== (after.setup![f] ?? null))
-        .map((f) => ({ field: f, before: before.setup![f] ?? null, after: after.setup![f] ?? null }));
+        .filter((f) => (before.setup![f]! ?? null) !== (after.setup![f]! ?? null))
+        .map((f) => ({ field: f, before: before.setup![f]! ?? null, after: after.setup![f]! ?? null }));
       if (changes.length === 0) continue;
       const sectors: SectorMove[] = [];
       if (before.bestSectorsMs && after.bestSectorsMs && before.bestSectorsMs.length === after.bestSectorsMs.length) {
-        before.bestSectorsMs.forEach((b, k) => sectors.push({ sector: k + 1, beforeMs: b, afterMs: after.bestSectorsMs![k], deltaMs: after.bestSectorsMs![k] - b }));
+        before.bestSectorsMs.forEach((b, k) => sectors.push({ sector: k + 1, beforeMs: b, afterMs: after.bestSectorsMs![k]!, deltaMs: after.bestSectorsMs![k]! - b }));
         sectors.sort((x, y) => Math.abs(y.deltaMs) - Math.abs(x.deltaMs) || x.sector - y.sector);
       }
       const delta = (a: number | null, b: number | null) => (a == null || b == null ? null : b - a);

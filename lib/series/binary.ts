@@ -52,13 +52,13 @@ export function encodeSeries<M>(meta: M, arrays: readonly SeriesArray[]): Uint8A
     guess = headerBytes.length;
   }
   const last = descriptors[descriptors.length - 1];
-  const total = last ? align(last.offset + arrays[arrays.length - 1].byteLength) : dataStart;
+  const total = last ? align(last.offset + arrays[arrays.length - 1]!.byteLength) : dataStart;
   const out = new Uint8Array(total);
   new DataView(out.buffer).setUint32(0, headerBytes.length, true);
   out.set(headerBytes, 4);
   for (let i = 0; i < arrays.length; i++) {
-    const a = arrays[i];
-    out.set(new Uint8Array(a.buffer, a.byteOffset, a.byteLength), descriptors[i].offset);
+    const a = arrays[i]!;
+    out.set(new Uint8Array(a.buffer, a.byteOffset, a.byteLength), descriptors[i]!.offset);
   }
   return out;
 }

@@ -67,20 +67,20 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
   let lo = 0;
   let hi = 0;
   for (let i = 0; i < n; i++) {
-    while (t[i] - t[lo] > halfWindowS) lo++;
+    while (t[i]! - t[lo]! > halfWindowS) lo++;
     if (hi < i) hi = i;
-    while (hi + 1 < n && t[hi + 1] - t[i] <= halfWindowS) hi++;
-    const vf = front[i];
-    const vr = rear[i];
+    while (hi + 1 < n && t[hi + 1]! - t[i]! <= halfWindowS) hi++;
+    const vf = front[i]!;
+    const vr = rear[i]!;
     if (!(vf >= minSpeedMps) || !Number.isFinite(vr)) continue;
-    if (lean && !(Math.abs(lean[i]) < maxLeanDeg)) continue;
+    if (lean && !(Math.abs(lean[i]!) < maxLeanDeg)) continue;
     if (hi === lo) continue;
-    const accel = (front[hi] - front[lo]) / (t[hi] - t[lo]);
+    const accel = (front[hi]! - front[lo]!) / (t[hi]! - t[lo]!);
     if (!(Math.abs(accel) <= maxAccelMps2)) continue;
     if (throttle) {
-      const th = throttle[i];
+      const th = throttle[i]!;
       if (!(th < maxThrottlePct)) continue;
-      if (!(Math.abs(throttle[lo] - th) <= maxThrottleChangePct && Math.abs(throttle[hi] - th) <= maxThrottleChangePct)) continue;
+      if (!(Math.abs(throttle[lo]! - th) <= maxThrottleChangePct && Math.abs(throttle[hi]! - th) <= maxThrottleChangePct)) continue;
     }
     if (count === ratios.length) {
       const grown = new Float64Array(Math.min(n, 2 * ratios.length));
@@ -92,7 +92,7 @@ export function calibrateSlipZero(series: SeriesLike, opts: SlipZeroOptions = {}
   if (count < minSamples) return { ratio: 1, sampleCount: count, applied: false, outOfBoundsRatio: null, reason: "not enough steady straight running at part throttle" };
   const sorted = ratios.subarray(0, count).sort();
   const mid = count >> 1;
-  const ratio = count % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
+  const ratio = count % 2 ? sorted[mid]! : 0.5 * (sorted[mid - 1]! + sorted[mid]!);
   if (!(ratio >= minRatio && ratio <= maxRatio)) {
     return {
       ratio: 1,

@@ -44,9 +44,9 @@ export function cornerExitSlip(
     let cnt = 0;
     let above = 0;
     for (let i = 0; i < n; i++) {
-      const d = distanceM[i];
+      const d = distanceM[i]!;
       if (!(d >= fromM && d < toM)) continue;
-      const s = slip[i];
+      const s = slip[i]!;
       if (!Number.isFinite(s)) continue;
       sum += s;
       cnt++;
@@ -54,7 +54,7 @@ export function cornerExitSlip(
         peak = s;
         peakAt = d;
       }
-      if (s > targetSlip && i + 1 < n) above += timeS[i + 1] - timeS[i];
+      if (s > targetSlip && i + 1 < n) above += timeS[i + 1]! - timeS[i]!;
     }
     return { name: c.name, fromM, toM, peakSlip: peak, peakAtM: peakAt, meanSlip: cnt ? sum / cnt : NaN, timeAboveTargetS: above, sampleCount: cnt };
   });

@@ -49,13 +49,13 @@ export function driveSlip(series: SeriesLike, opts: DriveSlipOptions = {}): Floa
   const lc = opts.lean;
 
   for (let i = 0; i < n; i++) {
-    const vfRaw = front[i];
+    const vfRaw = front[i]!;
     if (!(vfRaw >= minFrontSpeedMps)) continue;
     let vf = vfRaw;
     if (!Number.isFinite(rear[i])) continue;
-    let vr = rear[i] / zeroRatio;
+    let vr = rear[i]! / zeroRatio;
     if (lc && leanCh) {
-      const leanDeg = leanCh[i];
+      const leanDeg = leanCh[i]!;
       if (Number.isFinite(leanDeg)) {
         vr *= effectiveRollingRadiusM(lc.rearRadiusM, lc.rearCrownRadiusM, leanDeg) / lc.rearRadiusM;
         vf *= effectiveRollingRadiusM(lc.frontRadiusM, lc.frontCrownRadiusM, leanDeg) / lc.frontRadiusM;

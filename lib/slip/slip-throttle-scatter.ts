@@ -24,8 +24,8 @@ export function slipThrottleScatter(
   for (let i = 0; i < n && k < size; i++) {
     if (!(Number.isFinite(slip[i]) && Number.isFinite(throttlePct[i]))) continue;
     if (seen++ % stride !== 0) continue;
-    th[k] = throttlePct[i];
-    sl[k] = slip[i];
+    th[k] = throttlePct[i]!;
+    sl[k] = slip[i]!;
     k++;
   }
   return { throttlePct: th, slip: sl };

@@ -52,15 +52,15 @@ export function spinEvents(
   let lo = 0;
   let hi = 0;
   const frontDecel = (i: number): number => {
-    while (timeS[i] - timeS[lo] > 0.1) lo++;
+    while (timeS[i]! - timeS[lo]! > 0.1) lo++;
     if (hi < i) hi = i;
-    while (hi + 1 < n && timeS[hi + 1] - timeS[i] <= 0.1) hi++;
+    while (hi + 1 < n && timeS[hi + 1]! - timeS[i]! <= 0.1) hi++;
     if (hi === lo || !front) return 0;
-    return -(front[hi] - front[lo]) / (timeS[hi] - timeS[lo]);
+    return -(front[hi]! - front[lo]!) / (timeS[hi]! - timeS[lo]!);
   };
   const mergeGapS = opts.mergeGapS ?? 0.1;
   const n = slip.length;
-  const dtS = n > 1 ? (timeS[n - 1] - timeS[0]) / (n - 1) : 0;
+  const dtS = n > 1 ? (timeS[n - 1]! - timeS[0]!) / (n - 1) : 0;
 
   const events: SpinEvent[] = [];
   let cur: SpinEvent | null = null;
@@ -69,21 +69,21 @@ export function spinEvents(
     cur = null;
   };
   for (let i = 0; i < n; i++) {
-    const s = slip[i];
-    let on = s > targetSlip && (!throttlePct || throttlePct[i] >= minThrottlePct);
+    const s = slip[i]!;
+    let on = s > targetSlip && (!throttlePct || throttlePct[i]! >= minThrottlePct);
     if (on && front && frontDecel(i) > wheelieDecel) on = false;
     if (!on) continue;
-    if (cur && timeS[i] - cur.endTimeS > mergeGapS + 1e-9) close();
+    if (cur && timeS[i]! - cur.endTimeS > mergeGapS + 1e-9) close();
     if (!cur) {
-      cur = { startIndex: i, endIndex: i, startTimeS: timeS[i], endTimeS: timeS[i], durationS: dtS, peakSlip: s, peakTimeS: timeS[i] };
+      cur = { startIndex: i, endIndex: i, startTimeS: timeS[i]!, endTimeS: timeS[i]!, durationS: dtS, peakSlip: s, peakTimeS: timeS[i]! };
     } else {
       cur.endIndex = i;
-      cur.endTimeS = timeS[i];
+      cur.endTimeS = timeS[i]!;
       // A stretch of k samples covers k sample periods of time.
       cur.durationS = cur.endTimeS - cur.startTimeS + dtS;
       if (s > cur.peakSlip) {
         cur.peakSlip = s;
-        cur.peakTimeS = timeS[i];
+        cur.peakTimeS = timeS[i]!;
       }
     }
   }

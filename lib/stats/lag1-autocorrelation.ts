@@ -13,10 +13,10 @@ export function lag1Autocorrelation(values: ArrayLike<number>): number {
   const m = mean(values);
   let num = 0;
   let den = 0;
-  let prev = values[0] - m;
+  let prev = values[0]! - m;
   den += prev * prev;
   for (let i = 1; i < n; i++) {
-    const d = values[i] - m;
+    const d = values[i]! - m;
     num += prev * d;
     den += d * d;
     prev = d;

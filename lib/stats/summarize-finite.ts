@@ -24,7 +24,7 @@ export function summarizeFinite(values: ArrayLike<number>, from = 0, to = values
   let max = -Infinity;
   let k = 0;
   for (let i = from; i < to; i++) {
-    const v = values[i];
+    const v = values[i]!;
     if (!Number.isFinite(v)) continue;
     finite[k++] = v;
     if (v < min) min = v;

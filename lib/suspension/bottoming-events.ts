@@ -28,14 +28,14 @@ export function bottomingEvents(
   const events: BottomingEvent[] = [];
   let cur: BottomingEvent | null = null;
   for (let i = 0; i < travelM.length; i++) {
-    const x = travelM[i];
+    const x = travelM[i]!;
     if (!(x >= limit)) continue;
-    if (cur && timeS[i] - cur.endTimeS <= debounceS) {
+    if (cur && timeS[i]! - cur.endTimeS <= debounceS) {
       cur.endIndex = i;
-      cur.endTimeS = timeS[i];
+      cur.endTimeS = timeS[i]!;
       if (x > cur.peakTravelM) cur.peakTravelM = x;
     } else {
-      cur = { startIndex: i, endIndex: i, startTimeS: timeS[i], endTimeS: timeS[i], peakTravelM: x };
+      cur = { startIndex: i, endIndex: i, startTimeS: timeS[i]!, endTimeS: timeS[i]!, peakTravelM: x };
       events.push(cur);
     }
   }

@@ -43,27 +43,27 @@ export function savitzkyGolayCoefficients(
   for (let r = 0; r < p; r++) {
     for (let c = 0; c < p; c++) {
       let acc = 0;
-      for (let k = 0; k < m; k++) acc += B[r * m + k] * B[c * m + k];
+      for (let k = 0; k < m; k++) acc += B[r * m + k]! * B[c * m + k]!;
       M[r * p + c] = acc;
     }
   }
   // Gauss–Jordan with partial pivoting: M·X = B → X = (AᵀA)⁻¹Aᵀ, the fit's coefficient map.
   for (let col = 0; col < p; col++) {
     let piv = col;
-    for (let r = col + 1; r < p; r++) if (Math.abs(M[r * p + col]) > Math.abs(M[piv * p + col])) piv = r;
+    for (let r = col + 1; r < p; r++) if (Math.abs(M[r * p + col]!) > Math.abs(M[piv * p + col]!)) piv = r;
     if (piv !== col) {
-      for (let c = 0; c < p; c++) [M[col * p + c], M[piv * p + c]] = [M[piv * p + c], M[col * p + c]];
-      for (let c = 0; c < m; c++) [B[col * m + c], B[piv * m + c]] = [B[piv * m + c], B[col * m + c]];
+      for (let c = 0; c < p; c++) [M[col * p + c]!, M[piv * p + c]!] = [M[piv * p + c]!, M[col * p + c]!];
+      for (let c = 0; c < m; c++) [B[col * m + c]!, B[piv * m + c]!] = [B[piv * m + c]!, B[col * m + c]!];
     }
-    const d = M[col * p + col];
-    for (let c = 0; c < p; c++) M[col * p + c] /= d;
-    for (let c = 0; c < m; c++) B[col * m + c] /= d;
+    const d = M[col * p + col]!;
+    for (let c = 0; c < p; c++) M[col * p + c]! /= d;
+    for (let c = 0; c < m; c++) B[col * m + c]! /= d;
     for (let r = 0; r < p; r++) {
       if (r === col) continue;
-      const f = M[r * p + col];
+      const f = M[r * p + col]!;
       if (f === 0) continue;
-      for (let c = 0; c < p; c++) M[r * p + c] -= f * M[col * p + c];
-      for (let c = 0; c < m; c++) B[r * m + c] -= f * B[col * m + c];
+      for (let c = 0; c < p; c++) M[r * p + c]! -= f * M[col * p + c]!;
+      for (let c = 0; c < m; c++) B[r * m + c]! -= f * B[col * m + c]!;
     }
   }
   // d-th derivative of Σ a_j u^j at u0: Σ_{j≥d} a_j · j!/(j−d)! · u0^(j−d); then d/dz = (d/du)/s.
@@ -74,9 +74,9 @@ export function savitzkyGolayCoefficients(
     for (let q = j; q > j - derivative; q--) w *= q;
     w *= j - derivative === 0 ? 1 : Math.pow(u0, j - derivative);
     if (w === 0) continue;
-    for (let k = 0; k < m; k++) out[k] += w * B[j * m + k];
+    for (let k = 0; k < m; k++) out[k]! += w * B[j * m + k]!;
   }
   const scale = Math.pow(s, derivative);
-  for (let k = 0; k < m; k++) out[k] /= scale;
+  for (let k = 0; k < m; k++) out[k]! /= scale;
   return out;
 }

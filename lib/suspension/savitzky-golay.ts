@@ -23,7 +23,7 @@ export function savitzkyGolayDerivative(
   for (let i = h; i < n - h; i++) {
     let acc = 0;
     const base = i - h;
-    for (let k = 0; k < window; k++) acc += centre[k] * x[base + k];
+    for (let k = 0; k < window; k++) acc += centre[k]! * x[base + k]!;
     out[i] = acc * scale;
   }
   for (let e = 0; e < h; e++) {
@@ -33,8 +33,8 @@ export function savitzkyGolayDerivative(
     let a = 0;
     let b = 0;
     for (let k = 0; k < window; k++) {
-      a += head[k] * x[k];
-      b += tail[k] * x[n - window + k];
+      a += head[k]! * x[k]!;
+      b += tail[k]! * x[n - window + k]!;
     }
     out[e] = a * scale;
     out[n - 1 - e] = b * scale;

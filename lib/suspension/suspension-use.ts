@@ -27,10 +27,10 @@ export function channelSamples(travelM: ArrayLike<number>, timeS: ArrayLike<numb
   const idx = index.subarray(0, m);
   if (m < 2) return { index: idx, dtS: NaN, window: 5 };
   const steps = new Float64Array(m - 1);
-  for (let k = 1; k < m; k++) steps[k - 1] = timeS[idx[k]] - timeS[idx[k - 1]];
+  for (let k = 1; k < m; k++) steps[k - 1] = timeS[idx[k]!]! - timeS[idx[k - 1]!]!;
   steps.sort();
   const mid = (m - 1) >> 1;
-  const dtS = (m - 1) % 2 ? steps[mid] : 0.5 * (steps[mid - 1] + steps[mid]);
+  const dtS = (m - 1) % 2 ? steps[mid]! : 0.5 * (steps[mid - 1]! + steps[mid]!);
   let window = Math.round(windowMs / 1000 / dtS);
   if (!Number.isFinite(window) || window < 5) window = 5;
   if (window % 2 === 0) window += 1;
@@ -51,13 +51,13 @@ export function channelVelocity(travelM: ArrayLike<number>, timeS: ArrayLike<num
   if (m < 2) return { velocity: out, dtS, window, samples: m };
   let start = 0;
   for (let k = 1; k <= m; k++) {
-    if (k < m && timeS[index[k]] - timeS[index[k - 1]] <= 1.5 * dtS) continue;
+    if (k < m && timeS[index[k]!]! - timeS[index[k - 1]!]! <= 1.5 * dtS) continue;
     const len = k - start;
     if (len >= window) {
       const run = new Float64Array(len);
-      for (let j = 0; j < len; j++) run[j] = travelM[index[start + j]];
+      for (let j = 0; j < len; j++) run[j] = travelM[index[start + j]!]!;
       const v = savitzkyGolayDerivative(run, dtS, window, order, 1);
-      for (let j = 0; j < len; j++) out[index[start + j]] = v[j];
+      for (let j = 0; j < len; j++) out[index[start + j]!] = v[j]!;
     }
     start = k;
   }
@@ -126,7 +126,7 @@ export interface SuspensionUse {
 function median(values: Float32Array | Float64Array, count: number): number {
   const s = values.subarray(0, count).sort();
   const mid = count >> 1;
-  return count % 2 ? s[mid] : 0.5 * (s[mid - 1] + s[mid]);
+  return count % 2 ? s[mid]! : 0.5 * (s[mid - 1]! + s[mid]!);
 }
 
 /** Suspension use of one fork or shock over a record (a lap or a session). */
@@ -138,7 +138,7 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
   const bins = opts.bins ?? 20;
   const vWidth = opts.velocityBinWidthMps ?? 0.025;
   const vRange = opts.velocityRangeMps ?? 0.5;
-  const dtS = n > 1 ? (timeS[n - 1] - timeS[0]) / (n - 1) : 1;
+  const dtS = n > 1 ? (timeS[n - 1]! - timeS[0]!) / (n - 1) : 1;
 
   const own = channelVelocity(travelM, timeS, windowMs, order);
   const velocityMps = own.velocity;
@@ -155,19 +155,19 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
   let maxTravelM = -Infinity;
 
   for (let i = 0; i < n; i++) {
-    const x = travelM[i];
+    const x = travelM[i]!;
     if (Number.isFinite(x)) {
       pCount++;
       if (x > maxTravelM) maxTravelM = x;
       const pct = (100 * x) / strokeM;
       const b = Math.min(bins - 1, Math.max(0, Math.floor((pct / 100) * bins)));
-      posCounts[b]++;
+      posCounts[b]!++;
     }
-    const v = velocityMps[i];
+    const v = velocityMps[i]!;
     if (Number.isFinite(v)) {
       vCount++;
       const b = Math.min(vBins - 1, Math.max(0, Math.floor((v + vRange) / vWidth)));
-      vCounts[b]++;
+      vCounts[b]!++;
       const fast = Math.abs(v) >= lowHighBoundaryMs;
       if (v >= 0) {
         if (fast) cHigh++;
@@ -176,8 +176,8 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
       else rLow++;
     }
   }
-  for (let b = 0; b < bins; b++) posCounts[b] = pCount ? (100 * posCounts[b]) / pCount : 0;
-  for (let b = 0; b < vBins; b++) vCounts[b] = vCount ? (100 * vCounts[b]) / vCount : 0;
+  for (let b = 0; b < bins; b++) posCounts[b] = pCount ? (100 * posCounts[b]!) / pCount : 0;
+  for (let b = 0; b < vBins; b++) vCounts[b] = vCount ? (100 * vCounts[b]!) / vCount : 0;
   const pctOf = (k: number) => (vCount ? (100 * k) / vCount : 0);
 
   // Sag.
@@ -200,8 +200,8 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
     const half = Math.max(1, Math.round(0.25 / dtS));
     const lean = opts.leanDeg;
     for (let i = 0; i < n; i++) {
-      const x = travelM[i];
-      const v = speed[i];
+      const x = travelM[i]!;
+      const v = speed[i]!;
       if (!Number.isFinite(x) || !Number.isFinite(v)) continue;
       if (v < 0.5) {
         if (nz === stopped.length) stopped = grow(stopped);
@@ -209,8 +209,8 @@ export function suspensionUse(travelM: Float32Array, timeS: Float64Array, opts: 
         continue;
       }
       if (v <= 10 || i < half || i + half >= n) continue;
-      if (lean && !(Math.abs(lean[i]) < 5)) continue;
-      const accel = (speed[i + half] - speed[i - half]) / (timeS[i + half] - timeS[i - half]);
+      if (lean && !(Math.abs(lean[i]!) < 5)) continue;
+      const accel = (speed[i + half]! - speed[i - half]!) / (timeS[i + half]! - timeS[i - half]!);
       if (Math.abs(accel) < 0.5) {
         if (ns === steady.length) steady = grow(steady);
         steady[ns++] = x;

@@ -34,6 +34,6 @@ export function travelFromPot(volts: ArrayLike<number>, calibration: PotCalibrat
   }
   const mPerVolt = mmPerVolt / 1000;
   const out = new Float32Array(volts.length);
-  for (let i = 0; i < volts.length; i++) out[i] = (volts[i] - offsetV) * mPerVolt;
+  for (let i = 0; i < volts.length; i++) out[i] = (volts[i]! - offsetV) * mPerVolt;
   return out;
 }

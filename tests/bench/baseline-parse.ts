@@ -9,8 +9,9 @@
 import fs from "node:fs";
 import Papa from "papaparse";
 import { procStatusMb } from "./proc-memory";
+import { at } from "../fixtures/at";
 
-const file = process.argv[2];
+const file = process.argv[2] ?? "";
 if (!file) throw new Error("usage: baseline-parse.ts <file.csv>");
 
 /** Lines before the first data row: `# key: value` lines plus the header. */
@@ -21,7 +22,7 @@ function preambleLines(path: string): { skip: number; columns: number } {
   fs.closeSync(fd);
   const lines = head.subarray(0, n).toString("utf8").split("\n");
   const header = lines.findIndex((l) => !l.startsWith("#"));
-  return { skip: header + 1, columns: lines[header].split(",").length };
+  return { skip: header + 1, columns: at(lines, header).split(",").length };
 }
 
 async function main(): Promise<void> {
@@ -40,7 +41,7 @@ async function main(): Promise<void> {
       chunk: (results) => {
         const data = results.data;
         for (let r = 0; r < data.length; r++) {
-          const row = data[r];
+          const row = at(data, r);
           if (toSkip > 0) {
             toSkip--;
             continue;
@@ -57,8 +58,8 @@ async function main(): Promise<void> {
               return w;
             });
           }
-          timeS[rows] = parseFloat(row[0]);
-          for (let k = 0; k < nch; k++) values[k][rows] = parseFloat(row[k + 1]);
+          timeS[rows] = parseFloat(at(row, 0));
+          for (let k = 0; k < nch; k++) at(values, k)[rows] = parseFloat(at(row, k + 1));
           rows++;
         }
       },

@@ -26,6 +26,7 @@ import { createSequelize } from "../../models/db";
 import { migrateUp } from "../../models/migrate";
 import { DEMO_PASSWORD, DEMO_USERS } from "../../workers/demo-accounts";
 import { freePort, newSecret, procEnv, signInHttp, spawnProc, startService, startWeb, stopProc, uploadViaSdk, type Proc } from "../e2e/helpers/processes";
+import { at } from "../fixtures/at";
 
 const ROOT = path.resolve(__dirname, "../..");
 const num = (name: string, d: number) => {
@@ -40,7 +41,7 @@ const PAGES = num("--pages", 20);
 const pct = (xs: number[], p: number) => {
   if (!xs.length) return NaN;
   const s = [...xs].sort((a, b) => a - b);
-  return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)];
+  return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)] ?? NaN;
 };
 const ms = (x: number) => (Number.isFinite(x) ? `${Math.round(x)}` : "—");
 
@@ -139,7 +140,7 @@ async function main() {
       const { initModels, RideSession } = await import("../../models");
       initModels(s);
       const t0 = performance.now();
-      const first = await uploadViaSdk(appUrl, cookies.engineer, file("load-first.csv"));
+      const first = await uploadViaSdk(appUrl, at(cookies, "engineer"), file("load-first.csv"));
       const firstMs = performance.now() - t0;
       const fs0 = await RideSession.findByPk(first.sessionId);
       const teamId = fs0!.teamId;
@@ -152,7 +153,7 @@ async function main() {
       const started = performance.now();
       const results = await Promise.all(
         Array.from({ length: UPLOADS }, async (_, i) => {
-          const r = await timed(() => uploadViaSdk(appUrl, cookies.engineer, file(`load-${i}.csv`)));
+          const r = await timed(() => uploadViaSdk(appUrl, at(cookies, "engineer"), file(`load-${i}.csv`)));
           return { ...r, doneAt: performance.now() };
         }),
       );
@@ -183,9 +184,9 @@ async function main() {
       );
       if (laps.length < 2) throw new Error("the seeded sessions have fewer than two timed laps");
       const url = `${appUrl}/api/series?laps=${laps.map((l) => `${l.session_id}:${l.number}`).join(",")}&roles=speed_front,throttle,brake_front,engine_rpm,gear,lean_angle&x=distance&width=1200`;
-      const alone = await median5(() => getOk(url, cookies.engineer));
+      const alone = await median5(() => getOk(url, at(cookies, "engineer")));
       console.log(`[load] ${SERIES} Compare series requests at once…`);
-      const rs = await Promise.all(Array.from({ length: SERIES }, () => timed(() => getOk(url, cookies.engineer))));
+      const rs = await Promise.all(Array.from({ length: SERIES }, () => timed(() => getOk(url, at(cookies, "engineer")))));
       rows.push({ what: "Compare series (2 laps × 6 ch)", n: SERIES, alone, times: rs.map((r) => r.ms), errors: rs.filter((r) => r.error).length, note: rs.find((r) => r.error)?.error });
     }
 
@@ -195,9 +196,9 @@ async function main() {
       const sessionPage = visible ? [`/sessions/${visible.id}`] : [];
       for (const u of DEMO_USERS) {
         const pages = [u.role === "rider" ? "/brief" : "/home", "/sessions", ...sessionPage];
-        const alone = await median5(() => getOk(`${appUrl}${pages[0]}`, cookies[u.role]));
+        const alone = await median5(() => getOk(`${appUrl}${at(pages, 0)}`, at(cookies, u.role)));
         console.log(`[load] ${PAGES} page loads at once as ${u.role}…`);
-        const rs = await Promise.all(Array.from({ length: PAGES }, (_, i) => timed(() => getOk(`${appUrl}${pages[i % pages.length]}`, cookies[u.role]))));
+        const rs = await Promise.all(Array.from({ length: PAGES }, (_, i) => timed(() => getOk(`${appUrl}${at(pages, i % pages.length)}`, at(cookies, u.role)))));
         rows.push({ what: `pages as ${u.role} (${pages.join(", ")})`, n: PAGES, alone, times: rs.map((r) => r.ms), errors: rs.filter((r) => r.error).length, note: rs.find((r) => r.error)?.error });
       }
     }

@@ -20,6 +20,7 @@ import type { Mapping } from "../../lib/ingest/mapping";
 import { writeSessionSamples } from "../../lib/data/samples";
 import { analyseAndStore } from "../../workers/ingest/analyse-session";
 import { procStatusMb } from "./proc-memory";
+import { at } from "../fixtures/at";
 
 async function main(): Promise<void> {
   const [file, readyId] = process.argv.slice(2);
@@ -62,7 +63,7 @@ async function main(): Promise<void> {
       pageParts = summary.pages.parts;
       analyseS = totalS - pagesS;
       const count = async (table: "laps" | "findings") =>
-        (await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM ${table} WHERE session_id = ?`, { replacements: [scratch.id], type: QueryTypes.SELECT, transaction: tx }))[0].n;
+        at((await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM ${table} WHERE session_id = ?`, { replacements: [scratch.id], type: QueryTypes.SELECT, transaction: tx })), 0).n;
       laps = Number(await count("laps"));
       findings = Number(await count("findings"));
     } finally {

@@ -12,6 +12,7 @@ import { DEMO_PASSWORD, DEMO_USERS } from "../../workers/demo-accounts";
 import { decodeSeries } from "../../lib/series/binary";
 import type { LapSeriesMeta } from "../../lib/series/lap-series-meta";
 import { nearestIndex } from "../../components/compare/series-lookup";
+import { at } from "../fixtures/at";
 
 let browser: Browser;
 let ctx: BrowserContext;
@@ -58,7 +59,7 @@ describe("Compare from the lap table", () => {
   it("ticks two laps and opens on the corner view: one card per corner with the served figures", async () => {
     const { id, laps } = await readyDemoSession();
     const flying = laps.filter((l) => !l.outLap && !l.inLap && !l.pitPass && !l.invalid);
-    const [a, b] = [flying[1], flying[2]];
+    const [a, b] = [at(flying, 1), at(flying, 2)];
     await page.goto(`${appUrl()}/sessions/${id}`);
     await page.getByTestId("lap-table").waitFor();
     await page.getByTestId("best-sector-lap").waitFor();
@@ -81,7 +82,7 @@ describe("Compare from the lap table", () => {
     await expect(cards.count()).resolves.toBe(meta.corners.length);
     expect(await cards.evaluateAll((els) => els.map((e) => e.getAttribute("data-corner")))).toEqual(meta.corners.map((c) => c.name));
     for (let k = 0; k < meta.corners.length; k++) {
-      expect(Number(await page.getByTestId(`corner-gained-${k}-1`).getAttribute("data-si"))).toBe(meta.corners[k].laps[1]!.gainedS);
+      expect(Number(await page.getByTestId(`corner-gained-${k}-1`).getAttribute("data-si"))).toBe(at(meta.corners, k).laps[1]!.gainedS);
     }
     // Each card has its small speed trace, one line per lap.
     await expect(cards.first().locator("svg path").count()).resolves.toBe(2);
@@ -129,12 +130,12 @@ describe("Compare from the lap table", () => {
     const order: [string, number][] = [["speed_front", 0], ["speed_front", 1], ["speed_rear", 0], ["speed_rear", 1]];
     for (const [i, [role, lap]] of order.entries()) {
       const pane = meta.panes.find((p) => p.role === role)!;
-      const k = nearestIndex(arrays[pane.x], x);
-      expect(Number(await page.getByTestId(`chip-pane-speed-${i}`).getAttribute("data-si"))).toBeCloseTo(arrays[pane.series[lap]!][k], 4);
+      const k = nearestIndex(at(arrays, pane.x), x);
+      expect(Number(await page.getByTestId(`chip-pane-speed-${i}`).getAttribute("data-si"))).toBeCloseTo(at(at(arrays, pane.series[lap]!), k), 4);
     }
     // Shown in the display unit: km/h, one decimal (metric default).
     const front = meta.panes.find((p) => p.role === "speed_front")!;
-    const v = arrays[front.series[0]!][nearestIndex(arrays[front.x], x)];
+    const v = at(at(arrays, front.series[0]!), nearestIndex(at(arrays, front.x), x));
     await expect(page.getByTestId("chip-pane-speed-0").textContent()).resolves.toContain(`${(v * 3.6).toFixed(1)} km/h`);
     // Inputs: throttle, front brake, rear brake × two laps = six chips.
     await expect(page.getByTestId("pane-inputs").locator('[data-testid^="chip-"]').count()).resolves.toBe(6);
@@ -142,12 +143,12 @@ describe("Compare from the lap table", () => {
 
   it("a thin signed band under every x axis shows where the second lap gained and where it lost", async () => {
     const { meta, arrays } = served;
-    const gap = arrays[meta.gap!.series[1]!];
+    const gap = at(arrays, meta.gap!.series[1]!);
     // The served gap both rises and falls along the lap, so both signs must be drawn.
     let up = 0, down = 0;
     for (let i = 1; i < gap.length; i++) {
-      if (gap[i] > gap[i - 1]) up++;
-      else if (gap[i] < gap[i - 1]) down++;
+      if (at(gap, i) > at(gap, i - 1)) up++;
+      else if (at(gap, i) < at(gap, i - 1)) down++;
     }
     expect(up).toBeGreaterThan(0);
     expect(down).toBeGreaterThan(0);
@@ -187,8 +188,8 @@ describe("Compare from the lap table", () => {
     await page.getByTestId("chip-pane-gap-0").waitFor();
     const x = Number(await page.getByTestId("cursor-x").getAttribute("data-si"));
     const { meta, arrays } = await servedSeries(page);
-    const gk = nearestIndex(arrays[meta.gap!.x], x);
-    expect(Number(await page.getByTestId("chip-pane-gap-0").getAttribute("data-si"))).toBeCloseTo(arrays[meta.gap!.series[1]!][gk], 5);
+    const gk = nearestIndex(at(arrays, meta.gap!.x), x);
+    expect(Number(await page.getByTestId("chip-pane-gap-0").getAttribute("data-si"))).toBeCloseTo(at(at(arrays, meta.gap!.series[1]!), gk), 5);
     await page.getByLabel("Running gap pane").click();
     await page.getByTestId("pane-gap").waitFor({ state: "detached" });
   });
@@ -212,7 +213,7 @@ describe("Compare from the lap table", () => {
     expect(zoomed.meta.window[0]).toBeGreaterThanOrEqual(from - 1);
     expect(zoomed.meta.window[1]).toBeLessThanOrEqual(to + 1);
     // Finer than the whole lap: more points per metre in the stretch.
-    const perM = (m: LapSeriesMeta, arr: typeof zoomed.arrays) => arr[m.panes[0].x].length / (m.window[1] - m.window[0]);
+    const perM = (m: LapSeriesMeta, arr: typeof zoomed.arrays) => at(arr, at(m.panes, 0).x).length / (at(m.window, 1) - at(m.window, 0));
     expect(perM(zoomed.meta, zoomed.arrays)).toBeGreaterThan(perM(served.meta, served.arrays));
     // …and the pane draws them: the points it holds match the window's series, more per metre than the whole lap's.
     const held = Number(await page.getByTestId("pane-inputs").getAttribute("data-points"));

@@ -9,6 +9,7 @@ import type { Browser } from "playwright-core";
 import { launch, shot, signIn, appUrl } from "./browser";
 import { DEMO_PASSWORD, DEMO_TEAM, DEMO_USERS } from "../../workers/demo-accounts";
 import { NAV_ITEMS } from "../../lib/nav";
+import { at } from "../fixtures/at";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -26,7 +27,7 @@ describe("demo sign-ins", () => {
       const ctx = await browser.newContext({ viewport: { width: 1280, height: 800 } });
       const page = await ctx.newPage();
       await signIn(page, u.email, DEMO_PASSWORD);
-      await expect(page.getByTestId("role").textContent()).resolves.toMatch(ROLE_TEXT[u.role]);
+      await expect(page.getByTestId("role").textContent()).resolves.toMatch(at(ROLE_TEXT, u.role));
       await expect(page.getByTestId("team-name").textContent()).resolves.toBe(DEMO_TEAM.name);
       const links = await page.getByRole("navigation", { name: "Main" }).getByRole("link").allTextContents();
       const expected = NAV_ITEMS.filter((i) => i.roles.includes(u.role)).map((i) => i.label);

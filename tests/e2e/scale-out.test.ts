@@ -31,6 +31,7 @@ import {
 } from "./helpers/processes";
 import path from "node:path";
 import fs from "node:fs";
+import { at } from "../fixtures/at";
 
 const dbName = `lapbench_scale_${process.pid}`;
 const dataDir = path.join(ROOT, ".data", `scale-${process.pid}`);
@@ -67,7 +68,7 @@ async function get(url: string, cookie: string): Promise<Response> {
 
 describe("two web apps and two workers on one database", () => {
   it("a sign-in on either app is valid on the other", async () => {
-    const [a, b] = apps;
+    const a = at(apps, 0), b = at(apps, 1);
     const onA = await signInHttp(a.url, team.members.engineer.email);
     const onB = await signInHttp(b.url, team.members.viewer.email);
     for (const [cookie, who] of [[onA, team.members.engineer], [onB, team.members.viewer]] as const) {
@@ -88,7 +89,7 @@ describe("two web apps and two workers on one database", () => {
   });
 
   it("uploads through both apps at once: every job runs exactly once, every session is visible from both apps", async () => {
-    const [a, b] = apps;
+    const a = at(apps, 0), b = at(apps, 1);
     const cookie = await signInHttp(a.url, team.members.engineer.email);
     // The first file of this layout waits for its column mapping; the rest reuse the saved profile.
     const first = await uploadViaSdk(a.url, cookie, new File([exportCsv(2000)], "layout.csv", { type: "text/csv" }));

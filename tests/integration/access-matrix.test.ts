@@ -23,6 +23,7 @@ import { prepareImport } from "@/lib/data/imports";
 import { createTrackWithSuggestedGate } from "@/lib/data/session-track";
 import { generateSession } from "@/sample-logs/generate-session";
 import { gpxChunks } from "@/sample-logs/write-formats";
+import { at } from "../fixtures/at";
 
 const request = vi.hoisted(() => ({ cookie: "" }));
 class Redirected extends Error {
@@ -180,13 +181,13 @@ async function measured<T>(call: () => Promise<T>): Promise<T> {
 }
 async function callRoute(file: string, method: string, url: string, actor: Actor, p: Record<string, string>, init: RequestInit = {}): Promise<Outcome> {
   const mod = (await routeMod(file)) as Record<string, (r: Request, c: { params: Promise<unknown> }) => Promise<Response>>;
-  const res = await measured(() => mod[method](req(url, cookieOf(actor), init), params(p)));
+  const res = await measured(() => at(mod, method)(req(url, cookieOf(actor), init), params(p)));
   return routeOutcome(res);
 }
 async function act<K extends string>(file: string, name: K, actor: Actor, ...args: unknown[]): Promise<Outcome> {
   const mod = (await import(/* @vite-ignore */ path.resolve("lib/actions", file))) as Record<string, (...x: unknown[]) => Promise<unknown>>;
   request.cookie = cookieOf(actor);
-  return measured(() => actionOutcome(() => mod[name](...args)));
+  return measured(() => actionOutcome(() => at(mod, name)(...args)));
 }
 
 const validImport = (title: string) => ({
@@ -251,7 +252,7 @@ const ROWS: Row[] = [
       const mod = (await routeMod("api/team/export/route.ts")) as Record<string, (r: Request, c: { params: Promise<unknown> }) => Promise<Response>>;
       let exported = "";
       const res = await measured(async () => {
-        const r = await mod.GET(req("/api/team/export", cookieOf(x)), params({}));
+        const r = await at(mod, "GET")(req("/api/team/export", cookieOf(x)), params({}));
         // Read the streamed zip to its end, so the export has finished before the checksum after it.
         if (r.status === 200) exported = Buffer.from(await r.arrayBuffer()).subarray(0, 2).toString("latin1");
         return r;
@@ -464,8 +465,8 @@ function discovered(): string[] {
       else if (e.name === "route.ts") {
         const src = fs.readFileSync(p, "utf8");
         const methods = new Set<string>();
-        for (const m of src.matchAll(/export\s+(?:async\s+function|const)\s+(GET|POST|PUT|PATCH|DELETE|HEAD|OPTIONS)\b/g)) methods.add(m[1]);
-        for (const m of src.matchAll(/export\s+const\s+\{([^}]*)\}/g)) for (const name of m[1].split(",").map((s) => s.trim())) if (/^(GET|POST|PUT|PATCH|DELETE|HEAD|OPTIONS)$/.test(name)) methods.add(name);
+        for (const m of src.matchAll(/export\s+(?:async\s+function|const)\s+(GET|POST|PUT|PATCH|DELETE|HEAD|OPTIONS)\b/g)) methods.add(at(m, 1));
+        for (const m of src.matchAll(/export\s+const\s+\{([^}]*)\}/g)) for (const name of at(m, 1).split(",").map((s) => s.trim())) if (/^(GET|POST|PUT|PATCH|DELETE|HEAD|OPTIONS)$/.test(name)) methods.add(name);
         for (const m of methods) out.push(`${path.relative(path.resolve("app"), p)} ${m}`);
       }
     }

@@ -9,6 +9,7 @@ import { initModels, Finding, Note } from "@/models";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { buildWorld, type World } from "./helpers/record-world";
 import type { TeamRole } from "@/lib/auth/permissions";
+import { at } from "../fixtures/at";
 
 const request = vi.hoisted(() => ({ cookie: "" }));
 vi.mock("next/headers", () => ({ headers: async () => new Headers(request.cookie ? { cookie: request.cookie } : {}) }));
@@ -40,7 +41,7 @@ beforeAll(async () => {
 
 describe("activity log", () => {
   it("records a setup save, an acknowledgement and a deletion with who did it", async () => {
-    const sessionId = world.sessions["Act FP"];
+    const sessionId = at(world.sessions, "Act FP");
     as("engineer");
     expect((await saveSetupSheetAction({}, form({ sessionId, baseVersion: 0, forkPreloadMm: "5" }))).ok).toBe(true);
     const finding = (await Finding.findOne({ where: { sessionId } }))!;
@@ -52,17 +53,17 @@ describe("activity log", () => {
     const log = await listTeamActivity(await ctx(team, "owner"));
     expect(log.map((e) => e.action)).toEqual(["note.delete", "finding.acknowledge", "setup.save"]);
     expect(log[2]).toMatchObject({ sessionId, actorName: "engineer", summary: "Saved setup version 1 (1 changed: forkPreloadMm)" });
-    expect(log[1].summary).toMatch(/Checked the rev limiter/);
-    expect(log[0].actorName).toBe("owner");
+    expect(at(log, 1).summary).toMatch(/Checked the rev limiter/);
+    expect(at(log, 0).actorName).toBe("owner");
   });
 
   it("shows the team's log to owners and engineers only, the session's entries to whoever sees the session", async () => {
     expect(await listTeamActivity(await ctx(team, "engineer"))).toHaveLength(3);
     await expect(listTeamActivity(await ctx(team, "rider"))).rejects.toMatchObject({ status: 403 });
     await expect(listTeamActivity(await ctx(team, "viewer"))).rejects.toMatchObject({ status: 403 });
-    expect(await listSessionActivity(await ctx(team, "viewer"), world.sessions["Act FP"])).toHaveLength(3);
-    expect(await listSessionActivity(await ctx(team, "rider"), world.sessions["Act FP"])).toHaveLength(3);
-    await expect(listSessionActivity(await ctx(other, "owner"), world.sessions["Act FP"])).rejects.toMatchObject({ status: 404 });
+    expect(await listSessionActivity(await ctx(team, "viewer"), at(world.sessions, "Act FP"))).toHaveLength(3);
+    expect(await listSessionActivity(await ctx(team, "rider"), at(world.sessions, "Act FP"))).toHaveLength(3);
+    await expect(listSessionActivity(await ctx(other, "owner"), at(world.sessions, "Act FP"))).rejects.toMatchObject({ status: 404 });
     expect(await listTeamActivity(await ctx(other, "owner"))).toHaveLength(0);
   });
 });

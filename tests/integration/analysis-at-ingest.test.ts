@@ -23,6 +23,7 @@ import { BIKE } from "@/sample-logs/bike-model";
 import { toLatLon, trackPointAt } from "@/sample-logs/circuit";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
+import { at } from "../fixtures/at";
 
 const DIR = path.resolve(__dirname, "../../sample-logs/files");
 
@@ -100,7 +101,7 @@ async function checkLaps(sessionId: number, truth: Truth, lapTolMs: number) {
   const laps = await Lap.findAll({ where: { sessionId }, order: [["number", "ASC"]] });
   expect(laps.map((l) => l.number)).toEqual(truth.laps.map((l) => ours(l.number)));
   for (const tl of truth.laps) {
-    const l = laps[tl.number];
+    const l = at(laps, tl.number);
     expect(l.isOutLap, `lap ${l.number} out`).toBe(tl.flags.outLap);
     expect(l.isInLap, `lap ${l.number} in`).toBe(tl.flags.inLap);
     expect(l.pitPass).toBe(false);
@@ -112,10 +113,10 @@ async function checkLaps(sessionId: number, truth: Truth, lapTolMs: number) {
     // 40 m/s, two crossings per sector. 25 ms is about 2.5 σ of the difference.
     const st = l.sectorTimesMs!;
     expect(st.reduce((a, b) => a + b, 0)).toBe(l.lapTimeMs);
-    tl.sectorTimesMs!.forEach((ms, k) => expect(Math.abs(st[k] - ms), `lap ${l.number} sector ${k + 1}`).toBeLessThanOrEqual(25));
+    tl.sectorTimesMs!.forEach((ms, k) => expect(Math.abs(at(st, k) - ms), `lap ${l.number} sector ${k + 1}`).toBeLessThanOrEqual(25));
   }
   // The in-lap ends where the log ends, after the bike stopped in the box (truth.stoppedAtS).
-  expect(laps[laps.length - 1].endTimeS).toBeGreaterThanOrEqual(truth.stoppedAtS);
+  expect(at(laps, laps.length - 1).endTimeS).toBeGreaterThanOrEqual(truth.stoppedAtS);
   return laps;
 }
 
@@ -142,9 +143,9 @@ describe("three-lap sample logs: laps, sectors and findings at ingest", () => {
     // of the model (4245.4 m centreline). The 0.3 m GPS noise lengthens the fix-to-fix path a
     // little and chords cut corners a little (measured: +1 to +4 m); 0.2 % is 8.5 m.
     for (const tl of truth.laps.filter((l) => l.kind === "flying")) {
-      expect(Math.abs(laps[tl.number].distanceM! - tl.distanceM) / tl.distanceM, `lap ${tl.number + 1} distance`).toBeLessThan(0.002);
+      expect(Math.abs(at(laps, tl.number).distanceM! - tl.distanceM) / tl.distanceM, `lap ${tl.number + 1} distance`).toBeLessThan(0.002);
       // Front wheel speed carries the model's small front slip and 0.02 m/s noise: within 0.2 %.
-      expect(Math.abs(laps[tl.number].topSpeedMps! - tl.topSpeedMps) / tl.topSpeedMps).toBeLessThan(0.002);
+      expect(Math.abs(at(laps, tl.number).topSpeedMps! - tl.topSpeedMps) / tl.topSpeedMps).toBeLessThan(0.002);
     }
 
     const summary = ready!.summary as SessionAnalysisSummary & { preview?: { format: string } };
@@ -153,7 +154,7 @@ describe("three-lap sample logs: laps, sectors and findings at ingest", () => {
     const flying = truth.laps.filter((l) => l.kind === "flying");
     const best = flying.reduce((a, b) => (b.lapTimeMs < a.lapTimeMs ? b : a));
     expect(summary.bestLap?.number).toBe(ours(best.number));
-    const bestSectors = [0, 1, 2].reduce((sum, k) => sum + Math.min(...flying.map((l) => l.sectorTimesMs![k])), 0);
+    const bestSectors = [0, 1, 2].reduce((sum, k) => sum + Math.min(...flying.map((l) => at(l.sectorTimesMs!, k))), 0);
     expect(Math.abs(summary.bestSectorLap!.timeMs - bestSectors)).toBeLessThanOrEqual(3 * 25);
     expect(summary.engine?.ceilingExceedances).toBe(truth.events.filter((e) => e.kind === "rev_ceiling").length);
     expect(summary.engine?.ceilingRpm).toBe(truth.revCeilingRpm);
@@ -169,7 +170,7 @@ describe("three-lap sample logs: laps, sectors and findings at ingest", () => {
     for (const e of truth.events) {
       const mine = findings.filter((f) => f.kind === e.kind && f.lapNumber === ours(e.lap) && Math.abs(f.startTimeS! - e.startS) <= 0.05);
       expect(mine, `${e.kind} on lap ${ours(e.lap)}`).toHaveLength(1);
-      const f = mine[0];
+      const f = at(mine, 0);
       expect(f.teamId).toBe(team.teamId);
       // Distance along the lap from the line vs the generator's track distance of the event
       // (measured within 3 m; the pit lane runs 25 m inside the straight and its ramps make the
@@ -192,7 +193,7 @@ describe("three-lap sample logs: laps, sectors and findings at ingest", () => {
   });
 
   it("reanalysing after a threshold change replaces the findings and keeps the acknowledgement of one found again", async () => {
-    const sessionId = sessions["three-laps-20hz.csv"];
+    const sessionId = at(sessions, "three-laps-20hz.csv");
     const rev = await Finding.findOne({ where: { sessionId, kind: "rev_ceiling" } });
     const brake = await Finding.findOne({ where: { sessionId, kind: "brake_on_straight" } });
     const ackAt = new Date("2031-05-17T11:00:00.000Z");
@@ -240,8 +241,8 @@ describe("GPS-only files", () => {
     const laps = await checkLaps(sessionId, truth, 20);
     // No wheel speed: distance is the GPS path length, within 0.2 % of the model's path.
     for (const tl of truth.laps.filter((l) => l.kind === "flying")) {
-      expect(Math.abs(laps[tl.number].distanceM! - tl.distanceM) / tl.distanceM).toBeLessThan(0.002);
-      expect((laps[tl.number].stats as { distanceSource: string }).distanceSource).toBe("gps");
+      expect(Math.abs(at(laps, tl.number).distanceM! - tl.distanceM) / tl.distanceM).toBeLessThan(0.002);
+      expect((at(laps, tl.number).stats as { distanceSource: string }).distanceSource).toBe("gps");
     }
     expect((s!.summary as SessionAnalysisSummary).engine).toBeNull();
   });

@@ -16,6 +16,7 @@ import { slipAnalysis, suspensionAnalysis, gearAnalysis, riderBrief, BRIEF_BRAKE
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
 import { createSampleTrackAndBike, ingestSampleFile } from "./helpers/demo-track";
+import { at } from "../fixtures/at";
 
 interface TruthCorner { name: string; brakeOnsetDistanceM: number | null }
 interface TruthLap { number: number; kind: string; corners: TruthCorner[] }
@@ -51,7 +52,7 @@ describe("Rider brief on three-laps-20hz.csv", () => {
     expect(flying.length).toBe(3);
     const best = first.bestLap!;
     // Lap numbers: ours count the out-lap as lap 1, the truth file as lap 0.
-    const offset = first.laps[0].number - truth.laps[0].number;
+    const offset = at(first.laps, 0).number - at(truth.laps, 0).number;
     const truthLap = (n: number) => truth.laps.find((l) => l.number === n - offset)!;
     let checked = 0;
     for (const lap of flying.filter((n) => n !== best)) {
@@ -125,7 +126,7 @@ describe("Drive slip", () => {
     // r_eff = r0 − rc·(1 − cos φ) per tyre: the rear (r0 1960/2π = 312 mm, rc 95 mm) shrinks by
     // 0.305·(1 − cos φ), the front (r0 1850/2π = 294 mm, rc 80 mm) by 0.272·(1 − cos φ), so the rear
     // scales down more and the corrected slip is never higher (geometry of the crown model).
-    for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i])) expect(b[i]).toBeLessThanOrEqual(a[i] + 1e-6);
+    for (let i = 0; i < a.length; i++) if (Number.isFinite(at(a, i))) expect(at(b, i)).toBeLessThanOrEqual(at(a, i) + 1e-6);
   });
 });
 

@@ -14,6 +14,7 @@ import { config } from "@/lib/config";
 import { createAuth, type LapbenchAuth } from "@/lib/auth/create-auth";
 import { invitationUrl, MIN_PASSWORD_LENGTH, SIGN_IN_RATE_LIMIT } from "@/lib/auth/options";
 import { teamRoles, type TeamRole } from "@/lib/auth/permissions";
+import { at } from "../fixtures/at";
 
 const run = `${process.pid}-${Date.now().toString(36)}`;
 const email = (who: string) => `${who}-${run}@lapbench.invalid`;
@@ -80,7 +81,7 @@ describe("sign-up and sign-in", () => {
     ).rejects.toMatchObject({ statusCode: 400 });
 
     // The password is stored hashed in the account table, never as given.
-    const [account] = await db.query<{ password: string }>("SELECT password FROM account WHERE userId = ?", { type: QueryTypes.SELECT, replacements: [userId] });
+    const account = at(await db.query<{ password: string }>("SELECT password FROM account WHERE userId = ?", { type: QueryTypes.SELECT, replacements: [userId] }), 0);
     expect(account.password).toBeTruthy();
     expect(account.password).not.toContain(PASSWORD);
   });
@@ -214,6 +215,6 @@ describe("sign-in rate limit", () => {
 
     const rows = await db.query<{ count: number }>("SELECT `count` FROM rateLimit WHERE `key` LIKE ?", { type: QueryTypes.SELECT, replacements: [`${ip}%sign-in/email`] });
     expect(rows).toHaveLength(1);
-    expect(rows[0].count).toBeGreaterThanOrEqual(SIGN_IN_RATE_LIMIT.max);
+    expect(at(rows, 0).count).toBeGreaterThanOrEqual(SIGN_IN_RATE_LIMIT.max);
   });
 });

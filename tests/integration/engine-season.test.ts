@@ -11,6 +11,7 @@ import { requireTeam } from "@/lib/auth/guard";
 import { initModels, Engine, RideSession } from "@/models";
 import { listSeasonEngines, enginesNearingRebuild, moveEngine, recordRebuild } from "@/lib/data/engine-season";
 import type { TeamRole } from "@/lib/auth/permissions";
+import { at } from "../fixtures/at";
 
 let team: TestTeam;
 let world: World;
@@ -64,7 +65,7 @@ describe("engines across the season", () => {
     await recordRebuild(await ctx("owner"), world.engine.id, { onDate: "2031-06-21", note: "Top end" });
     const e = (await listSeasonEngines(await ctx("owner"), RPM)).find((x) => x.id === world.engine.id)!;
     expect(e.history[0]).toMatchObject({ kind: "rebuild", onDate: "2031-06-21", note: "Top end" });
-    expect(e.history[0].hoursBefore).toBeCloseTo(8.4, 9);
+    expect(at(e.history, 0).hoursBefore).toBeCloseTo(8.4, 9);
     expect(e.ledger.hours).toBe(0);
     expect(e.sessions).toHaveLength(0);
     expect(e.lastRebuild).toBe("2031-06-21");

@@ -13,6 +13,7 @@ import { getThresholdSettings, saveBikeThresholds, saveTrackThresholds } from "@
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
 import { createRider, createSampleTrackAndBike, ingestSampleFile } from "./helpers/demo-track";
+import { at } from "../fixtures/at";
 
 let a: TestTeam;
 let b: TestTeam;
@@ -76,7 +77,7 @@ describe("acknowledging a finding", () => {
 
   it("an engineer acknowledges with a note: who, when and the note are stored", async () => {
     const before = Date.now();
-    const f = await acknowledgeFinding(ctx.engineer!, ids[0], "  Lever checked in the box, guard bent; replaced.  ");
+    const f = await acknowledgeFinding(ctx.engineer!, at(ids, 0), "  Lever checked in the box, guard bent; replaced.  ");
     expect(f.acknowledgedByName).toBe(ctx.engineer!.userName);
     const row = await Finding.findByPk(ids[0]);
     expect(row!.acknowledgedBy).toBe(a.members.engineer.userId);
@@ -85,17 +86,17 @@ describe("acknowledging a finding", () => {
   });
 
   it("an owner may acknowledge too", async () => {
-    await acknowledgeFinding(ctx.owner!, ids[1], "Seen.");
+    await acknowledgeFinding(ctx.owner!, at(ids, 1), "Seen.");
     expect((await Finding.findByPk(ids[1]))!.acknowledgedBy).toBe(a.members.owner.userId);
   });
 
   it.each(["rider", "viewer"] as const)("a %s is refused with 403 and nothing changes", async (role) => {
-    expect(await status(acknowledgeFinding(ctx[role]!, ids[2], "I think it is fine"))).toBe(403);
+    expect(await status(acknowledgeFinding(ctx[role]!, at(ids, 2), "I think it is fine"))).toBe(403);
     expect((await Finding.findByPk(ids[2]))!.acknowledgedAt).toBeNull();
   });
 
   it("an engineer of another team gets 404 and nothing changes", async () => {
-    expect(await status(acknowledgeFinding(otherTeamEngineer, ids[2], "not mine"))).toBe(404);
+    expect(await status(acknowledgeFinding(otherTeamEngineer, at(ids, 2), "not mine"))).toBe(404);
     expect((await Finding.findByPk(ids[2]))!.acknowledgedAt).toBeNull();
   });
 
@@ -104,7 +105,7 @@ describe("acknowledging a finding", () => {
     expect(list.map((f) => f.id).sort()).toEqual(ids.slice(2).sort());
     expect(list.every((f) => f.sessionTitle.length > 0)).toBe(true);
     const rank = { critical: 0, warning: 1, info: 2 };
-    for (let i = 1; i < list.length; i++) expect(rank[list[i].severity]).toBeGreaterThanOrEqual(rank[list[i - 1].severity]);
+    for (let i = 1; i < list.length; i++) expect(at(rank, at(list, i).severity)).toBeGreaterThanOrEqual(at(rank, at(list, i - 1).severity));
     const rider = await createRider(a.teamId, a.members.rider.userId);
     await RideSession.update({ riderId: rider.id }, { where: { id: sessionId } });
     expect((await listFindingsToReview(ctx.rider!, { limit: 100 })).length).toBe(list.length);

@@ -29,6 +29,7 @@ import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
 import { createSampleTrackAndBike } from "./helpers/demo-track";
 import { foreignLoggerCsv, FOREIGN_ORIGIN, type ForeignLog } from "../fixtures/foreign-logger";
+import { at } from "../fixtures/at";
 
 let team: TestTeam;
 let other: TestTeam;
@@ -127,18 +128,18 @@ describe("a first upload from an unfamiliar logger", () => {
   it("the Import profile is listed with its columns, last use and the session it read; riders and other teams are kept out", async () => {
     const list = await listImportProfiles(ctxOf(team, "engineer"));
     expect(list).toHaveLength(1);
-    const p = list[0];
+    const p = at(list, 0);
     expect(p.name).toBe("Fieldbox 12 (invented)");
     expect(p.columns.find((c) => c.name === "Pot 3")!.role).toBe("shock_travel");
     expect(p.sessionCount).toBe(1);
-    expect(p.sessions[0].id).toBe(sessionId);
+    expect(at(p.sessions, 0).id).toBe(sessionId);
     expect(p.lastUsedAt).not.toBeNull();
     await expectHttp(listImportProfiles(ctxOf(team, "rider")), 403);
     await expectHttp(updateImportProfile(ctxOf(other, "engineer"), p.id, { name: "x", timeFormat: "milliseconds", columns: [] }), 404);
   });
 
   it("a profile edit is checked like the mapping screen, then saved: renamed, the battery left out", async () => {
-    const [p] = await listImportProfiles(ctxOf(team, "engineer"));
+    const p = at(await listImportProfiles(ctxOf(team, "engineer")), 0);
     const cols = p.columns.map(({ index, role, unit, scale, offset }) => ({ index, role, unit, scale, offset }));
     const twice = cols.map((c) => (c.role === "brake_rear" ? { ...c, role: "brake_front" } : c));
     const e = await expectHttp(updateImportProfile(ctxOf(team, "engineer"), p.id, { name: "Fieldbox 12", timeFormat: "milliseconds", columns: twice }), 422);
@@ -147,7 +148,7 @@ describe("a first upload from an unfamiliar logger", () => {
     await expectHttp(updateImportProfile(ctxOf(team, "engineer"), p.id, { name: "Fieldbox 12", timeFormat: "milliseconds", columns: badUnit }), 422);
     const batt = p.columns.find((c) => c.name === "Batt")!.index;
     await updateImportProfile(ctxOf(team, "engineer"), p.id, { name: "Fieldbox 12", timeFormat: "milliseconds", columns: cols.map((c) => (c.index === batt ? { ...c, role: "ignore" } : c)) });
-    const [after] = await listImportProfiles(ctxOf(team, "engineer"));
+    const after = at(await listImportProfiles(ctxOf(team, "engineer")), 0);
     expect(after.name).toBe("Fieldbox 12");
     expect(after.columns.find((c) => c.index === batt)!.role).toBe("ignore");
   });
@@ -156,7 +157,7 @@ describe("a first upload from an unfamiliar logger", () => {
     await createSessionNote(ctxOf(team, "engineer"), sessionId, { text: "Rear pot re-zeroed before the run" });
     const { findings } = await listSessionFindings(ctxOf(team, "engineer"), sessionId);
     expect(findings.length).toBeGreaterThan(0);
-    await acknowledgeFinding(ctxOf(team, "engineer"), findings[0].id, "Seen; lever checked");
+    await acknowledgeFinding(ctxOf(team, "engineer"), at(findings, 0).id, "Seen; lever checked");
 
     expect(await reimportSession(sequelize(), ctxOf(team, "engineer"), sessionId)).toEqual({ status: "mapping" });
     const screen = await getImportScreen(ctxOf(team, "engineer"), sessionId);
@@ -167,7 +168,7 @@ describe("a first upload from an unfamiliar logger", () => {
     const v = importFormSchema.parse(form(screen, { "Ang": "ignore" }, { updateProfile: false }));
     await confirmSessionImport(sequelize(), ctxOf(team, "engineer"), sessionId, v);
     expect(await parse(sessionId)).toBe("ready");
-    const [p] = await listImportProfiles(ctxOf(team, "engineer"));
+    const p = at(await listImportProfiles(ctxOf(team, "engineer")), 0);
     expect(p.columns.find((c) => c.name === "Ang")!.role).toBe("lean_angle");
     const channels = await sequelize().query<{ name: string }>("SELECT name FROM channels WHERE session_id = ?", { replacements: [sessionId], type: QueryTypes.SELECT });
     expect(channels.map((c) => c.name)).not.toContain("Ang");
@@ -195,7 +196,7 @@ describe("a first upload from an unfamiliar logger", () => {
     const truth = log.session.truth.laps.filter((l) => l.kind === "flying");
     expect(flying).toHaveLength(truth.length);
     // The gate lies ~70 m before the generator's line: lap times agree within 0.1 s (ground truth: the generator).
-    flying.forEach((l, k) => expect(Math.abs(l.lapTimeMs - truth[k].lapTimeMs)).toBeLessThan(100));
+    flying.forEach((l, k) => expect(Math.abs(l.lapTimeMs - at(truth, k).lapTimeMs)).toBeLessThan(100));
     const after = await getSessionTrackPanel(ctxOf(team, "engineer"), sessionId);
     expect(after.trackId).toBe(r.trackId);
     expect(after.refused).toBeNull();
@@ -222,7 +223,7 @@ describe("a first upload from an unfamiliar logger", () => {
   });
 
   it("deleting the profile: the next file with this header asks for a mapping again", async () => {
-    const [p] = await listImportProfiles(ctxOf(team, "engineer"));
+    const p = at(await listImportProfiles(ctxOf(team, "engineer")), 0);
     await expectHttp(deleteImportProfile(ctxOf(team, "viewer"), p.id), 403);
     await deleteImportProfile(ctxOf(team, "engineer"), p.id);
     expect(await ImportProfile.count({ where: { teamId: team.teamId } })).toBe(0);
@@ -238,7 +239,7 @@ describe("a first upload from an unfamiliar logger", () => {
     expect(d!.sessionId).toBe(latest!.id);
     const flying = (await Lap.findAll({ where: { sessionId: d!.sessionId, isOutLap: false, isInLap: false, isInvalid: false, pitPass: false } })).sort((a, b) => a.lapTimeMs - b.lapTimeMs);
     expect(flying.length).toBeGreaterThanOrEqual(2);
-    expect(d!.laps).toEqual([flying[0].number, flying[1].number]);
+    expect(d!.laps).toEqual([at(flying, 0).number, at(flying, 1).number]);
     // A rider with no own or shared sessions gets nothing to open on.
     expect(await defaultCompareLaps(ctxOf(team, "rider"))).toBeNull();
   });

@@ -10,6 +10,7 @@ import { initModels } from "@/models";
 import { requireTeam } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/http-error";
 import { createTeamWithRoles, createUser, signInCookie, testAuth, type TestTeam } from "./helpers/teams";
+import { at } from "../fixtures/at";
 
 let a: TestTeam;
 let b: TestTeam;
@@ -31,7 +32,7 @@ async function statusOf(p: Promise<unknown>): Promise<number> {
 }
 /** Only the session-token cookie, without better-auth's short-lived session_data cache cookie. */
 const tokenCookie = (cookie: string) => cookie.split("; ").find((c) => c.startsWith("better-auth.session_token="))!;
-const tokenOf = (cookie: string) => decodeURIComponent(tokenCookie(cookie).split("=")[1]).split(".")[0];
+const tokenOf = (cookie: string) => at(decodeURIComponent(at(tokenCookie(cookie).split("="), 1)).split("."), 0);
 
 describe("requireTeam", () => {
   it("answers with the member's team and role from one database query", async () => {
@@ -108,7 +109,7 @@ describe("requireTeam", () => {
     // better-auth's defaults: expiresIn 7 days, updateAge 1 day. Two days left = used five days ago.
     await getSequelize().query("UPDATE session SET expiresAt = NOW(3) + INTERVAL 2 DAY WHERE token = ?", { replacements: [token], type: QueryTypes.UPDATE });
     expect(await statusOf(requireTeam(headersOf(tokenCookie(cookie))))).toBe(200);
-    const [row] = await getSequelize().query<{ left: number }>("SELECT TIMESTAMPDIFF(HOUR, NOW(3), expiresAt) AS `left` FROM session WHERE token = ?", { replacements: [token], type: QueryTypes.SELECT });
+    const row = at(await getSequelize().query<{ left: number }>("SELECT TIMESTAMPDIFF(HOUR, NOW(3), expiresAt) AS `left` FROM session WHERE token = ?", { replacements: [token], type: QueryTypes.SELECT }), 0);
     expect(Number(row.left)).toBeGreaterThan(6 * 24);
   });
 });

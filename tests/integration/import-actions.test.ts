@@ -19,6 +19,7 @@ import type { TeamRole } from "@/lib/auth/permissions";
 import { HttpError } from "@/lib/http/http-error";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
+import { at } from "../fixtures/at";
 
 let team: TestTeam;
 let other: TestTeam;
@@ -88,10 +89,11 @@ beforeAll(async () => {
   other = await createTeamWithRoles("Another team");
   up = await startUploadHarness();
   const ev = await RaceEvent.create({ teamId: team.teamId, trackId: null, name: "Spring test", startsOn: "2031-05-17", endsOn: "2031-05-18" });
-  const [b1, b2] = await Bike.bulkCreate([
+  const bikes = await Bike.bulkCreate([
     { teamId: team.teamId, name: "Bike 27", className: null, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null, sprocketFront: null, sprocketRear: null, revCeilingRpm: null, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null },
     { teamId: team.teamId, name: "Bike 64", className: null, wheelCircFrontMm: null, wheelCircRearMm: null, primaryRatio: null, gearboxRatios: null, sprocketFront: null, sprocketRear: null, revCeilingRpm: null, forkStrokeMm: null, shockStrokeMm: null, tyreCrownRadiusMm: null, calibrations: null, thresholds: null },
   ]);
+  const b1 = at(bikes, 0), b2 = at(bikes, 1);
   const eng = await Engine.create({ teamId: team.teamId, bikeId: b1.id, serial: "IA-E1", rebuildIntervalH: 30, rebuildIntervalKm: null, notes: null });
   const rider = await Rider.create({ teamId: team.teamId, name: "Test Rider", raceNumber: "27", userId: team.members.rider.userId });
   const otherEv = await RaceEvent.create({ teamId: other.teamId, trackId: null, name: "Not yours", startsOn: null, endsOn: null });
@@ -120,9 +122,9 @@ describe("import screen → confirm → parse → session page", () => {
       ["Front brake", "bar", "brake_front", "bar"],
       ["Fork", "mm", "fork_travel", "mm"],
     ]);
-    expect(s.columns[1].samples[0]).toBe("120.00");
-    expect(s.columns[1].confidence).toBeGreaterThan(0.8);
-    expect(s.columns[1].reason).toMatch(/name says wheel speed, front/);
+    expect(at(s.columns, 1).samples[0]).toBe("120.00");
+    expect(at(s.columns, 1).confidence).toBeGreaterThan(0.8);
+    expect(at(s.columns, 1).reason).toMatch(/name says wheel speed, front/);
   });
 
   it("riders and viewers cannot open it; another team's engineer gets 404", async () => {
@@ -197,7 +199,7 @@ describe("import screen → confirm → parse → session page", () => {
     expect(o.session.durationS).toBeCloseTo(1499 / 50, 6);
     const byName = Object.fromEntries(o.channels.map((c) => [c.name, c]));
     expect(byName["Front wheel speed"]).toMatchObject({ roleLabel: "Front wheel speed", unit: "km/h", samples: 1500, min: "60.0", max: "180.0" });
-    expect(byName["Front wheel speed"].rateHz).toBeCloseTo(50, 6);
+    expect(at(byName, "Front wheel speed").rateHz).toBeCloseTo(50, 6);
     expect(byName["Front brake"]).toMatchObject({ unit: "bar", min: "0.00", max: "9.50" });
     expect(byName["Fork"]).toMatchObject({ roleLabel: "Fork travel", unit: "mm", min: "10.0", max: "70.0" });
   });

@@ -17,6 +17,7 @@ import type { Mapping } from "@/lib/ingest/mapping";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
 import { KMH_TO_MPS, BAR_TO_PA } from "@/lib/ingest/units";
+import { at } from "../fixtures/at";
 
 let team: TestTeam;
 let up: UploadHarness;
@@ -84,10 +85,10 @@ describe("upload → mapping → job → ready", () => {
     const channels = await listChannels(sequelize(), firstSession);
     expect(channels.map((c) => c.role)).toEqual(["time", "speed_front", "brake_front", "gps_speed"]);
     const data = await readChannels(sequelize(), channels);
-    const time = data.get(channels[0].id)!;
-    const speed = data.get(channels[1].id)!;
-    const brake = data.get(channels[2].id)!;
-    const gps = data.get(channels[3].id)!;
+    const time = data.get(at(channels, 0).id)!;
+    const speed = data.get(at(channels, 1).id)!;
+    const brake = data.get(at(channels, 2).id)!;
+    const gps = data.get(at(channels, 3).id)!;
     expect(time.length).toBe(2000);
     for (const i of [0, 1, 777, 1999]) {
       const t = i / 100;
@@ -98,7 +99,7 @@ describe("upload → mapping → job → ready", () => {
     // bar → Pa by 100 000, exact (NIST SP 811, App. B).
     expect(brake[0]).toBe(8.5 * BAR_TO_PA);
     expect(Number.isNaN(gps[1])).toBe(true);
-    expect(channels[3].sampleCount).toBe(400);
+    expect(at(channels, 3).sampleCount).toBe(400);
   });
 
   it("the next file with the same header is queued at once with the saved profile", async () => {

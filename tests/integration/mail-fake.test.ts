@@ -6,6 +6,7 @@ import nodemailer, { type Transporter } from "nodemailer";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startMailFake, type MailFake } from "../../workers/services/mail-fake";
 import { findLatestMailTo, listCapturedMail } from "../../lib/mail/captured-mail";
+import { at } from "../fixtures/at";
 
 let fake: MailFake;
 let dir: string;
@@ -33,7 +34,7 @@ describe("mail fake", () => {
     });
     const mails = await listCapturedMail(dir);
     expect(mails).toHaveLength(1);
-    const m = mails[0];
+    const m = at(mails, 0);
     expect(m.subject).toBe("You are invited to Team Falcon");
     expect(m.to).toEqual(["rider.one@team-falcon.invalid"]);
     expect(m.from).toContain("no-reply@lapbench.invalid");
@@ -53,7 +54,7 @@ describe("mail fake", () => {
     });
     const mails = await listCapturedMail(dir);
     expect(mails.map((m) => m.subject)).toEqual(["Session ready: Practice 2", "You are invited to Team Falcon"]);
-    const m = mails[0];
+    const m = at(mails, 0);
     expect(m.html).toContain("<a href=");
     expect(m.links).toContain("http://localhost:3000/sessions/42/brief?tab=laps&lap=3");
     expect(m.date).toMatch(/^\d{4}-\d\d-\d\dT/);

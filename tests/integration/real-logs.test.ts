@@ -21,6 +21,7 @@ import { driveSlip } from "@/lib/slip/drive-slip";
 import { haversineM } from "@/lib/geo/haversine-m";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
+import { at } from "../fixtures/at";
 
 const ROOT = path.resolve(__dirname, "../../../shared/real-logs");
 
@@ -163,7 +164,7 @@ describe("real recorded logs through the upload path", () => {
     const lat = s.channels.gps_lat!;
     const lon = s.channels.gps_lon!;
     const n = lat.length;
-    const gap = haversineM(lat[0], lon[0], lat[n - 1], lon[n - 1]);
+    const gap = haversineM(at(lat, 0), at(lon, 0), at(lat, n - 1), at(lon, n - 1));
     expect(gap).toBeGreaterThan(20);
     expect(gap).toBeLessThan(30);
   });
@@ -186,7 +187,7 @@ describe("real recorded logs through the upload path", () => {
     expect(slip.length).toBeGreaterThan(1000);
     // README: median of |rear/front − 1| over the segment is 0.21 %; one wheel per axle adds its own
     // rolling-radius offset, which the automatic zero takes out.
-    expect(Math.abs(slip[slip.length >> 1])).toBeLessThan(0.005);
+    expect(Math.abs(at(slip, slip.length >> 1))).toBeLessThan(0.005);
     expect(await Finding.count({ where: { sessionId: o.sessionId, kind: "wheel_spin" } })).toBe(0);
   }, 120_000);
 

@@ -8,6 +8,7 @@ import { initModels, Bike, Engine, RideSession } from "@/models";
 import { getSequelize } from "@/models/db";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { recomputeCount, roundBoundaryMs, roundRpm } from "@/lib/data/recompute-cache";
+import { at } from "../fixtures/at";
 
 vi.mock("next/headers", () => ({ headers: async () => new Headers() }));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
@@ -52,7 +53,7 @@ describe("results reused", () => {
     const again = await Promise.all([enginesOfBike(ctx, bikeId, 13490), enginesOfBike(ctx, bikeId, 13510)]);
     expect(again.map((r) => r.rpm)).toEqual([13500, 13500]);
     expect(recomputeCount() - c0).toBe(2);
-    expect(again[0].engines[0].ledger).toEqual(first.engines[0].ledger);
+    expect(at(at(again, 0).engines, 0).ledger).toEqual(at(first.engines, 0).ledger);
     await enginesOfBike(ctx, bikeId, 13600);
     expect(recomputeCount() - c0).toBe(4);
   });

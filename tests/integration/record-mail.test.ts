@@ -19,6 +19,7 @@ import { requireTeam } from "@/lib/auth/guard";
 import { notifySessionReady } from "@/lib/mail/session-ready";
 import { saveMailPreferences } from "@/lib/data/mail-preferences";
 import { sendEventReport } from "@/lib/data/event-report";
+import { at } from "../fixtures/at";
 
 let fake: MailFake;
 let dir: string;
@@ -41,7 +42,7 @@ afterAll(async () => {
 
 describe("session ready mail", () => {
   it("reaches the rider with the summary in plain text and a link, and engineers with the findings count", async () => {
-    const id = world.sessions["Mail FP"];
+    const id = at(world.sessions, "Mail FP");
     const r = await notifySessionReady(getSequelize(), id);
     expect(r.errors).toEqual([]);
     expect(r.sent.map((s) => s.audience).sort()).toEqual(["engineer", "rider"]);
@@ -63,9 +64,9 @@ describe("session ready mail", () => {
 
   it("is sent once per session and person, and not to those who turned it off", async () => {
     const before = (await listCapturedMail(dir)).length;
-    expect((await notifySessionReady(getSequelize(), world.sessions["Mail FP"])).sent).toEqual([]);
+    expect((await notifySessionReady(getSequelize(), at(world.sessions, "Mail FP"))).sent).toEqual([]);
     await saveMailPreferences({ userId: team.members.rider.userId }, { sessionReady: false, eventReport: true });
-    const r = await notifySessionReady(getSequelize(), world.sessions["Mail FP2"]);
+    const r = await notifySessionReady(getSequelize(), at(world.sessions, "Mail FP2"));
     expect(r.sent.map((s) => s.to)).toEqual([team.members.engineer.email]);
     expect(r.skipped).toContain(team.members.rider.email);
     expect((await listCapturedMail(dir)).length).toBe(before + 1);

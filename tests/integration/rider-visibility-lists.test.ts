@@ -6,6 +6,7 @@
 import { describe, it, expect, beforeAll, vi } from "vitest";
 import { initModels, Bike, Engine, RideSession, Rider, Track } from "@/models";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
+import { at } from "../fixtures/at";
 
 vi.mock("next/headers", () => ({ headers: async () => new Headers() }));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
@@ -44,13 +45,13 @@ const ctxOf = (role: "rider" | "engineer" | "viewer") => requireTeam(new Headers
 describe("Engine ledger session list", () => {
   it("a rider sees their own and shared sessions; the engine's life still counts all three", async () => {
     const { engines } = await enginesOfBike(await ctxOf("rider"), bikeId);
-    expect(engines[0].sessions.map((s) => s.title).sort()).toEqual(["Mine", "Shared"]);
-    expect(engines[0].ledger.hours).toBeCloseTo(1.5, 9);
+    expect(at(engines, 0).sessions.map((s) => s.title).sort()).toEqual(["Mine", "Shared"]);
+    expect(at(engines, 0).ledger.hours).toBeCloseTo(1.5, 9);
   });
 
   it.each(["engineer", "viewer"] as const)("%s sees all three", async (role) => {
     const { engines } = await enginesOfBike(await ctxOf(role), bikeId);
-    expect(engines[0].sessions.map((s) => s.title).sort()).toEqual(["Mine", "Shared", "Team-mate's"]);
+    expect(at(engines, 0).sessions.map((s) => s.title).sort()).toEqual(["Mine", "Shared", "Team-mate's"]);
   });
 });
 

@@ -9,6 +9,7 @@ import { buildWorld, type World } from "./helpers/record-world";
 import { requireTeam } from "@/lib/auth/guard";
 import { getSeasonRecord } from "@/lib/data/season-record";
 import type { TeamRole } from "@/lib/auth/permissions";
+import { at } from "../fixtures/at";
 
 let team: TestTeam;
 let other: TestTeam;
@@ -48,14 +49,14 @@ describe("season record", () => {
     const bests = rec.trackBests.find((t) => t.trackId === world.track.id)!.bests;
     expect(bests.map((b) => [b.riderName, b.bestLapMs, b.sessionId])).toEqual([
       ["Wren Tallis", 91_700, world.sessions["R2 Q"]],
-      ["Odo Marsh", 94_000, bests[1].sessionId],
+      ["Odo Marsh", 94_000, at(bests, 1).sessionId],
     ]);
     expect(rec.progression!.trackId).toBe(world.track.id);
     expect(rec.progression!.points.map((p) => [p.eventName, p.bestLapMs])).toEqual([
       ["Round 1", 92_500],
       ["Round 2", 91_700],
     ]);
-    expect(rec.progression!.points[1].bestThreeMeanMs).toBeCloseTo((91_700 + 91_900 + 92_000) / 3, 6);
+    expect(at(rec.progression!.points, 1).bestThreeMeanMs).toBeCloseTo((91_700 + 91_900 + 92_000) / 3, 6);
   });
 
   it("filters by rider, bike, track and season", async () => {

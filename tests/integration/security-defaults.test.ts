@@ -18,6 +18,7 @@ import { RESET_MAILS_PER_ACCOUNT, RESET_REQUEST_RATE_LIMIT, SESSION_EXPIRES_S, S
 import { dbUploadGrants } from "@/lib/data/upload-grants";
 // @ts-expect-error -- plain JavaScript module loaded into the web server process
 import { clientAddress, parseTrustedProxies, rewriteRequest } from "../../workers/services/peer-address.mjs";
+import { at } from "../fixtures/at";
 
 type Trusted = { count: number; has(a: string): boolean };
 const run = `${process.pid}-${Date.now().toString(36)}`;
@@ -199,7 +200,7 @@ describe("invitations need a confirmed, matching address", () => {
     expect(link.startsWith(`${config.appUrl}/api/auth/verify-email?token=`)).toBe(true);
     const verified = await auth.handler(new Request(link));
     expect([200, 302]).toContain(verified.status);
-    const [row] = await db.query<{ emailVerified: number }>("SELECT emailVerified FROM user WHERE id = ?", { replacements: [me.userId], type: QueryTypes.SELECT });
+    const row = at(await db.query<{ emailVerified: number }>("SELECT emailVerified FROM user WHERE id = ?", { replacements: [me.userId], type: QueryTypes.SELECT }), 0);
     expect(Number(row.emailVerified)).toBe(1);
 
     const { headers } = await auth.api.signInEmail({ body: { email: invitee, password: PASSWORD }, returnHeaders: true });

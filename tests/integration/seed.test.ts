@@ -18,6 +18,7 @@ import { seedDemo, type SeedResult } from "@/workers/seed";
 import { DEMO_TEAM, DEMO_USERS } from "@/workers/demo-accounts";
 import { BIKE } from "@/sample-logs/bike-model";
 import { CIRCUIT } from "@/sample-logs/circuit";
+import { at } from "../fixtures/at";
 
 const DIR = path.resolve(__dirname, "../../sample-logs/files");
 interface Truth {
@@ -79,9 +80,9 @@ describe("seedDemo on a fresh database, run twice", () => {
       replacements: DEMO_USERS.map((u) => u.email),
       type: QueryTypes.SELECT,
     });
-    expect(Number(users[0].n)).toBe(DEMO_USERS.length);
+    expect(Number(at(users, 0).n)).toBe(DEMO_USERS.length);
     const teams = await getSequelize().query<{ n: number }>("SELECT COUNT(*) AS n FROM organization WHERE slug = ?", { replacements: [DEMO_TEAM.slug], type: QueryTypes.SELECT });
-    expect(Number(teams[0].n)).toBe(1);
+    expect(Number(at(teams, 0).n)).toBe(1);
   });
 
   it("the track is the invented circuit; bikes are set up like the generator's bike", async () => {
@@ -117,17 +118,17 @@ describe("seedDemo on a fresh database, run twice", () => {
       const laps = await Lap.findAll({ where: { sessionId: id }, order: [["number", "ASC"]] });
       expect(laps).toHaveLength(truth.laps.length);
       // The generator numbers the out-lap 0; Lapbench numbers from 1.
-      for (const tl of truth.laps) expect([laps[tl.number].isOutLap, laps[tl.number].isInLap]).toEqual([tl.flags.outLap, tl.flags.inLap]);
+      for (const tl of truth.laps) expect([at(laps, tl.number).isOutLap, at(laps, tl.number).isInLap]).toEqual([tl.flags.outLap, tl.flags.inLap]);
       const findings = await Finding.findAll({ where: { sessionId: id } });
       // Repeats of one kind are one finding naming the laps (a person's list); the first event places it.
       const kinds = [...new Set(truth.events.map((e) => e.kind))];
       for (const kind of kinds) {
         const events = truth.events.filter((e) => e.kind === kind);
-        const e = events[0];
+        const e = at(events, 0);
         const hit = findings.filter((f) => f.kind === e.kind && f.lapNumber === e.lap + 1 && f.startTimeS! <= e.startS + 1 && f.endTimeS! >= e.startS - 1);
         expect(hit, `${e.kind} lap ${e.lap + 1}`).toHaveLength(1);
-        if (events.length > 1) expect(hit[0].message).toContain(`${events.length} times, ${formatLapList(events.map((x) => x.lap + 1))}`);
-        if (e.kind !== "pit_overspeed") expect(hit[0].message.endsWith(CAUTION_TEXT)).toBe(true);
+        if (events.length > 1) expect(at(hit, 0).message).toContain(`${events.length} times, ${formatLapList(events.map((x) => x.lap + 1))}`);
+        if (e.kind !== "pit_overspeed") expect(at(hit, 0).message.endsWith(CAUTION_TEXT)).toBe(true);
       }
       // Default thresholds on a clean ride: nothing but the planted events.
       expect(findings).toHaveLength(kinds.length);

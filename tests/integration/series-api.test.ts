@@ -27,6 +27,7 @@ import * as lapsRoute from "@/app/api/sessions/[id]/laps/route";
 import { SERIES_LIMITS, clearLapSeriesCaches } from "@/lib/data/lap-series";
 import { reanalyseSession } from "@/lib/data/reanalyse";
 import { QueryTypes } from "sequelize";
+import { at } from "../fixtures/at";
 
 const FILE = path.resolve("sample-logs/files/three-laps-20hz.csv");
 const TRUTH = JSON.parse(fs.readFileSync(path.resolve("sample-logs/files/three-laps-20hz.truth.json"), "utf8")) as {
@@ -117,7 +118,7 @@ describe("readChannelRange", () => {
   it("returns exactly the samples of the range, across chunk boundaries, as readChannels does", async () => {
     const channels = (await listChannels(getSequelize(), riderSession)).filter((c) => ["time", "speed_front", "gps_lat"].includes(c.role));
     const whole = await readChannels(getSequelize(), channels);
-    for (const [s, e] of [[0, 10], [CHUNK_SAMPLES - 3, CHUNK_SAMPLES + 5], [12_345, 31_000], [48_000, 10_000_000]]) {
+    for (const [s, e] of [[0, 10], [CHUNK_SAMPLES - 3, CHUNK_SAMPLES + 5], [12_345, 31_000], [48_000, 10_000_000]] as const) {
       const part = await readChannelRange(getSequelize(), channels, s, e);
       for (const c of channels) {
         const w = whole.get(c.id)!;
@@ -136,12 +137,12 @@ describe("the lap list", () => {
     const truthFlying = TRUTH.laps.filter((l) => l.kind === "flying");
     expect(flying.length).toBe(truthFlying.length);
     // GPS at 20 Hz and the interpolated gate crossing: the generator's model path is the reference.
-    flying.forEach((l, i) => expect(Math.abs(l.lapTimeMs - truthFlying[i].lapTimeMs)).toBeLessThan(20));
+    flying.forEach((l, i) => expect(Math.abs(l.lapTimeMs - at(truthFlying, i).lapTimeMs)).toBeLessThan(20));
   });
 });
 
 describe("GET /api/series: who gets what", () => {
-  const pair = () => `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`;
+  const pair = () => `${riderSession}:${at(flying, 0).number},${riderSession}:${at(flying, 1).number}`;
 
   it("refuses a request without a session (401)", async () => {
     expect((await series(undefined, pair(), "speed_front")).status).toBe(401);
@@ -149,18 +150,18 @@ describe("GET /api/series: who gets what", () => {
 
   it.each(["owner", "engineer", "viewer", "rider"] as const)("%s reads two laps of the rider's session", async (role) => {
     const { meta, arrays } = await decoded(await series(a.members[role].cookie, pair(), "speed_front,throttle"));
-    expect(meta.laps.map((l) => l.lap)).toEqual([flying[0].number, flying[1].number]);
+    expect(meta.laps.map((l) => l.lap)).toEqual([at(flying, 0).number, at(flying, 1).number]);
     expect(meta.panes.map((p) => p.role)).toEqual(["speed_front", "throttle"]);
-    for (const p of meta.panes) for (const s of p.series) expect(arrays[s!].length).toBe(arrays[p.x].length);
+    for (const p of meta.panes) for (const s of p.series) expect(at(arrays, s!).length).toBe(at(arrays, p.x).length);
   });
 
   it("laps from two sessions of the team compare together (owner)", async () => {
-    const { meta } = await decoded(await series(a.members.owner.cookie, `${riderSession}:${flying[0].number},${otherSession}:${flying[2].number}`, "speed_front"));
+    const { meta } = await decoded(await series(a.members.owner.cookie, `${riderSession}:${at(flying, 0).number},${otherSession}:${at(flying, 2).number}`, "speed_front"));
     expect(meta.laps.map((l) => l.sessionTitle)).toEqual(["FP1 own", "FP1 other"]);
   });
 
   it("a rider gets 404 for another rider's unshared session, and sees it once shared", async () => {
-    const mixed = `${riderSession}:${flying[0].number},${otherSession}:${flying[0].number}`;
+    const mixed = `${riderSession}:${at(flying, 0).number},${otherSession}:${at(flying, 0).number}`;
     expect((await series(a.members.rider.cookie, mixed, "speed_front")).status).toBe(404);
     await RideSession.update({ sharedWithRiders: true }, { where: { id: otherSession } });
     expect((await series(a.members.rider.cookie, mixed, "speed_front")).status).toBe(200);
@@ -183,26 +184,26 @@ describe("GET /api/series: who gets what", () => {
 
 describe("series values", () => {
   it("the running gap at the line equals lapTime(B) − lapTime(A) within 1 ms", async () => {
-    const laps = `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number},${riderSession}:${flying[2].number}`;
+    const laps = `${riderSession}:${at(flying, 0).number},${riderSession}:${at(flying, 1).number},${riderSession}:${at(flying, 2).number}`;
     const { meta, arrays } = await decoded(await series(a.members.engineer.cookie, laps, "speed_front", "distance", 8000));
     expect(meta.gap).not.toBeNull();
     expect(meta.gap!.series[0]).toBeNull();
-    const x = arrays[meta.gap!.x];
+    const x = at(arrays, meta.gap!.x);
     // The grid runs 0 … reference lap length at 1 m, ending exactly on the line.
-    expect(x[0]).toBe(0);
-    expect(x[1]).toBe(1);
-    expect(x[x.length - 1]).toBeCloseTo(meta.laps[0].lengthM, 6);
+    expect(at(x, 0)).toBe(0);
+    expect(at(x, 1)).toBe(1);
+    expect(at(x, x.length - 1)).toBeCloseTo(at(meta.laps, 0).lengthM, 6);
     for (const i of [1, 2]) {
-      const g = arrays[meta.gap!.series[i]!];
+      const g = at(arrays, meta.gap!.series[i]!);
       // Running gap = time(B) − time(A) at equal distance; at the full lap both
       // have covered it, so by definition it is the lap-time difference. Float32 storage: µs.
-      expect(Math.abs(g[g.length - 1] * 1000 - (flying[i].lapTimeMs - flying[0].lapTimeMs))).toBeLessThan(1);
-      expect(g[0]).toBeCloseTo(0, 6);
+      expect(Math.abs(at(g, g.length - 1) * 1000 - (at(flying, i).lapTimeMs - at(flying, 0).lapTimeMs))).toBeLessThan(1);
+      expect(at(g, 0)).toBeCloseTo(0, 6);
     }
   });
 
   it("by time, each lap's values are the stored samples interpolated at lap-relative times", async () => {
-    const lap = flying[1];
+    const lap = at(flying, 1);
     const { meta, arrays } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${lap.number}`, "speed_front,engine_rpm", "time", 10_000));
     const channels = await listChannels(getSequelize(), riderSession);
     const whole = await readChannels(getSequelize(), channels);
@@ -210,49 +211,49 @@ describe("series values", () => {
     const v = whole.get(channels.find((c) => c.role === "speed_front")!.id)!;
     const pane = meta.panes.find((p) => p.role === "speed_front")!;
     expect(pane.decimated).toBe(false);
-    const xs = arrays[pane.x];
-    const ys = arrays[pane.series[0]!];
-    expect(xs[xs.length - 1]).toBeLessThanOrEqual(lap.lapTimeMs / 1000 + 1e-6);
+    const xs = at(arrays, pane.x);
+    const ys = at(arrays, pane.series[0]!);
+    expect(at(xs, xs.length - 1)).toBeLessThanOrEqual(lap.lapTimeMs / 1000 + 1e-6);
     for (const k of [0, 1, 777, 4000, xs.length - 2]) {
-      const abs = lap.startTimeS + xs[k];
+      const abs = lap.startTimeS + at(xs, k);
       // Independent linear interpolation between the two stored samples around `abs`.
       let i = 0;
-      while (t[i + 1] < abs) i++;
-      const expected = v[i] + ((v[i + 1] - v[i]) * (abs - t[i])) / (t[i + 1] - t[i]);
-      expect(ys[k]).toBeCloseTo(expected, 3);
+      while (at(t, i + 1) < abs) i++;
+      const expected = at(v, i) + ((at(v, i + 1) - at(v, i)) * (abs - at(t, i))) / (at(t, i + 1) - at(t, i));
+      expect(at(ys, k)).toBeCloseTo(expected, 3);
     }
   });
 
   it("lap length comes from GPS-rescaled wheel distance: within 1 % of the model path length", async () => {
-    const { meta } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${flying[0].number}`, "speed_front"));
-    const truth = TRUTH.laps.filter((l) => l.kind === "flying")[0];
-    expect(Math.abs(meta.laps[0].lengthM - truth.distanceM) / truth.distanceM).toBeLessThan(0.01);
+    const { meta } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${at(flying, 0).number}`, "speed_front"));
+    const truth = at(TRUTH.laps.filter((l) => l.kind === "flying"), 0);
+    expect(Math.abs(at(meta.laps, 0).lengthM - truth.distanceM) / truth.distanceM).toBeLessThan(0.01);
     expect(meta.track).not.toBeNull();
   });
 
   it("decimation to a narrow chart keeps every pixel column's min and max of each lap", async () => {
-    const laps = `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`;
+    const laps = `${riderSession}:${at(flying, 0).number},${riderSession}:${at(flying, 1).number}`;
     const full = await decoded(await series(a.members.engineer.cookie, laps, "engine_rpm", "distance", 10_000));
     const width = 300;
     const small = await decoded(await series(a.members.engineer.cookie, laps, "engine_rpm", "distance", width));
-    const fp = full.meta.panes[0];
-    const sp = small.meta.panes[0];
+    const fp = at(full.meta.panes, 0);
+    const sp = at(small.meta.panes, 0);
     expect(fp.decimated).toBe(false);
     expect(sp.decimated).toBe(true);
-    const fx = full.arrays[fp.x];
-    const sx = small.arrays[sp.x];
+    const fx = at(full.arrays, fp.x);
+    const sx = at(small.arrays, sp.x);
     expect(sx.length).toBeLessThan(fx.length);
     expect(sx.length).toBeLessThanOrEqual(2 * (3 * width + 2));
-    const x0 = fx[0];
-    const perX = width / (fx[fx.length - 1] - x0);
+    const x0 = at(fx, 0);
+    const perX = width / (at(fx, fx.length - 1) - x0);
     const col = (xv: number) => Math.min(width - 1, Math.floor((xv - x0) * perX));
     for (let s = 0; s < 2; s++) {
-      const fy = full.arrays[fp.series[s]!];
-      const sy = small.arrays[sp.series[s]!];
+      const fy = at(full.arrays, fp.series[s]!);
+      const sy = at(small.arrays, sp.series[s]!);
       const fMin = new Float64Array(width).fill(Infinity), fMax = new Float64Array(width).fill(-Infinity);
       const sMin = new Float64Array(width).fill(Infinity), sMax = new Float64Array(width).fill(-Infinity);
-      for (let i = 0; i < fx.length; i++) if (Number.isFinite(fy[i])) { const c = col(fx[i]); fMin[c] = Math.min(fMin[c], fy[i]); fMax[c] = Math.max(fMax[c], fy[i]); }
-      for (let i = 0; i < sx.length; i++) if (Number.isFinite(sy[i])) { const c = col(sx[i]); sMin[c] = Math.min(sMin[c], sy[i]); sMax[c] = Math.max(sMax[c], sy[i]); }
+      for (let i = 0; i < fx.length; i++) if (Number.isFinite(at(fy, i))) { const c = col(at(fx, i)); fMin[c] = Math.min(at(fMin, c), at(fy, i)); fMax[c] = Math.max(at(fMax, c), at(fy, i)); }
+      for (let i = 0; i < sx.length; i++) if (Number.isFinite(at(sy, i))) { const c = col(at(sx, i)); sMin[c] = Math.min(at(sMin, c), at(sy, i)); sMax[c] = Math.max(at(sMax, c), at(sy, i)); }
       expect(Array.from(sMin)).toEqual(Array.from(fMin));
       expect(Array.from(sMax)).toEqual(Array.from(fMax));
     }
@@ -260,12 +261,12 @@ describe("series values", () => {
 });
 
 describe("heavy requests, windows, corners and sectors", () => {
-  const two = () => `${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`;
+  const two = () => `${riderSession}:${at(flying, 0).number},${riderSession}:${at(flying, 1).number}`;
 
   it("the same lap asked twice is compared once, in first-mention order", async () => {
-    const { meta } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${flying[1].number},${riderSession}:${flying[0].number},${riderSession}:${flying[1].number}`, "speed_front"));
-    expect(meta.laps.map((l) => l.lap)).toEqual([flying[1].number, flying[0].number]);
-    expect(meta.panes[0].series).toHaveLength(2);
+    const { meta } = await decoded(await series(a.members.engineer.cookie, `${riderSession}:${at(flying, 1).number},${riderSession}:${at(flying, 0).number},${riderSession}:${at(flying, 1).number}`, "speed_front"));
+    expect(meta.laps.map((l) => l.lap)).toEqual([at(flying, 1).number, at(flying, 0).number]);
+    expect(at(meta.panes, 0).series).toHaveLength(2);
   });
 
   it("answers 413 with a clear message above the samples-read cap and above the grid-points cap", async () => {
@@ -293,18 +294,18 @@ describe("heavy requests, windows, corners and sectors", () => {
     const res = await seriesRoute.GET(req(`${seriesUrl(two(), "speed_front", "distance", 300)}&from=1000&to=1400`, a.members.engineer.cookie), params({}));
     const part = await decoded(res);
     expect(part.meta.window).toEqual([1000, 1400]);
-    expect(part.meta.fullX[1]).toBeCloseTo(whole.meta.laps[0].lengthM, 6);
-    const p = part.meta.panes[0];
-    const xs = part.arrays[p.x];
+    expect(at(part.meta.fullX, 1)).toBeCloseTo(at(whole.meta.laps, 0).lengthM, 6);
+    const p = at(part.meta.panes, 0);
+    const xs = at(part.arrays, p.x);
     // 401 points at 1 m and 300 px: below four points per column, so nothing is thinned.
     expect(p.decimated).toBe(false);
     expect(xs.length).toBe(401);
-    const wx = whole.arrays[whole.meta.panes[0].x];
+    const wx = at(whole.arrays, at(whole.meta.panes, 0).x);
     for (const k of [0, 123, 400]) {
-      const g = Array.from(wx).indexOf(xs[k]);
+      const g = Array.from(wx).indexOf(at(xs, k));
       expect(g).toBeGreaterThan(0);
-      for (let s = 0; s < 2; s++) expect(part.arrays[p.series[s]!][k]).toBe(whole.arrays[whole.meta.panes[0].series[s]!][g]);
-      expect(part.arrays[part.meta.gap!.series[1]!][k]).toBe(whole.arrays[whole.meta.gap!.series[1]!][g]);
+      for (let s = 0; s < 2; s++) expect(at(part.arrays, p.series[s]!)[k]).toBe(at(whole.arrays, at(whole.meta.panes, 0).series[s]!)[g]);
+      expect(at(part.arrays, part.meta.gap!.series[1]!)[k]).toBe(at(whole.arrays, whole.meta.gap!.series[1]!)[g]);
     }
     const bad = await seriesRoute.GET(req(`${seriesUrl(two(), "speed_front")}&from=500`, a.members.engineer.cookie), params({}));
     expect(bad.status).toBe(422);
@@ -315,19 +316,19 @@ describe("heavy requests, windows, corners and sectors", () => {
     expect(meta.cornerSource).toBe("track");
     expect(meta.corners.map((c) => c.name)).toEqual(CIRCUIT.corners.map((c) => c.name));
     for (const [k, c] of meta.corners.entries()) {
-      expect(c.x).toBeCloseTo(CIRCUIT.corners[k].apexDistanceM, 6);
+      expect(c.x).toBeCloseTo(at(CIRCUIT.corners, k).apexDistanceM, 6);
       expect(c.fromX).toBeLessThan(c.x);
       expect(c.toX).toBeGreaterThan(c.x);
     }
     // Sector bands: one per sector time, end to end over the lap, each as long as the ground truth's
     // sector distance is not known, so check they tile the lap and follow the sector times.
-    const ref = (await Lap.findOne({ where: { sessionId: riderSession, number: flying[0].number } }))!;
+    const ref = (await Lap.findOne({ where: { sessionId: riderSession, number: at(flying, 0).number } }))!;
     const times = (ref.sectorTimesMs as number[] | null) ?? [];
     if (times.length > 1) {
       expect(meta.sectors).toHaveLength(times.length);
-      expect(meta.sectors[0].fromX).toBe(0);
-      expect(meta.sectors.at(-1)!.toX).toBeCloseTo(meta.laps[0].lengthM, 6);
-      for (let i = 1; i < meta.sectors.length; i++) expect(meta.sectors[i].fromX).toBe(meta.sectors[i - 1].toX);
+      expect(at(meta.sectors, 0).fromX).toBe(0);
+      expect(meta.sectors.at(-1)!.toX).toBeCloseTo(at(meta.laps, 0).lengthM, 6);
+      for (let i = 1; i < meta.sectors.length; i++) expect(at(meta.sectors, i).fromX).toBe(at(meta.sectors, i - 1).toX);
     }
   });
 
@@ -335,7 +336,7 @@ describe("heavy requests, windows, corners and sectors", () => {
     const { meta } = await decoded(await series(a.members.engineer.cookie, two(), "speed_front,brake_front"));
     const sum = meta.corners.reduce((n, c) => n + c.laps[1]!.gainedS, 0);
     // The corner stretches tile the lap, so their gains add up to time(A) − time(B) at the line.
-    expect(sum).toBeCloseTo((flying[0].lapTimeMs - flying[1].lapTimeMs) / 1000, 3);
+    expect(sum).toBeCloseTo((at(flying, 0).lapTimeMs - at(flying, 1).lapTimeMs) / 1000, 3);
     for (const c of meta.corners) {
       expect(c.laps[0]!.gainedS).toBe(0);
       const l = c.laps[1]!;
@@ -352,7 +353,7 @@ describe("heavy requests, windows, corners and sectors", () => {
     const first = new Uint8Array(await (await series(a.members.engineer.cookie, two(), "speed_front,throttle")).arrayBuffer());
     const again = new Uint8Array(await (await series(a.members.engineer.cookie, two(), "speed_front,throttle")).arrayBuffer());
     expect(Buffer.compare(Buffer.from(first), Buffer.from(again))).toBe(0);
-    const version = async () => Number((await getSequelize().query<{ v: number }>("SELECT analysis_version AS v FROM ride_sessions WHERE id = ?", { replacements: [riderSession], type: QueryTypes.SELECT }))[0].v);
+    const version = async () => Number(at((await getSequelize().query<{ v: number }>("SELECT analysis_version AS v FROM ride_sessions WHERE id = ?", { replacements: [riderSession], type: QueryTypes.SELECT })), 0).v);
     const before = await version();
     if (!lapsFromTruth) {
       await reanalyseSession(getSequelize(), riderSession);
@@ -371,10 +372,10 @@ describe("exports", () => {
     expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="[A-Za-z0-9._-]+\.csv"/);
     const parsed = Papa.parse<string[]>(await res.text(), { skipEmptyLines: true });
     expect(parsed.data.length).toBe(TRUTH.laps.length + 1);
-    expect(parsed.data[0][0]).toBe("Session");
+    expect(at(parsed.data, 0)[0]).toBe("Session");
     // OWASP CSV injection guidance: a leading quote makes the spreadsheet read it as text.
     for (const row of parsed.data.slice(1)) expect(row[0]).toBe(`'=HYPERLINK("http://example.com","x")`);
-    expect(parsed.data[2][2]).toMatch(/^1:2\d\.\d{3}$/);
+    expect(at(parsed.data, 2)[2]).toMatch(/^1:2\d\.\d{3}$/);
   });
 
   it("the CSV of another rider's unshared session is a 404 for a rider, and of another team for everyone", async () => {
@@ -384,7 +385,7 @@ describe("exports", () => {
   });
 
   it("a lap as GPX validates as XML and holds the lap's 20 Hz fixes, in time order, inside the lap", async () => {
-    const lap = flying[0];
+    const lap = at(flying, 0);
     const res = await gpxRoute.GET(req(`/api/sessions/${riderSession}/laps/${lap.number}/gpx`, a.members.viewer.cookie), params({ id: String(riderSession), lap: String(lap.number) }));
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toMatch(/^application\/gpx\+xml/);
@@ -396,12 +397,12 @@ describe("exports", () => {
     const expected = ((lap.endTimeS - lap.startTimeS) * 20);
     expect(Math.abs(pts.length - expected)).toBeLessThanOrEqual(2);
     const times = pts.map((p) => Date.parse(p.time));
-    for (let i = 1; i < times.length; i++) expect(times[i]).toBeGreaterThan(times[i - 1]);
+    for (let i = 1; i < times.length; i++) expect(at(times, i)).toBeGreaterThan(at(times, i - 1));
     // Session time 0 is the log's start, or the upload time when the log names none.
     const row = (await RideSession.findByPk(riderSession))!;
     const started = (row.startedAt ?? row.createdAt).getTime();
-    expect(times[0]).toBeGreaterThanOrEqual(started + lap.startTimeS * 1000 - 1);
-    expect(times[times.length - 1]).toBeLessThanOrEqual(started + lap.endTimeS * 1000 + 1);
+    expect(at(times, 0)).toBeGreaterThanOrEqual(started + lap.startTimeS * 1000 - 1);
+    expect(at(times, times.length - 1)).toBeLessThanOrEqual(started + lap.endTimeS * 1000 + 1);
   });
 
   it("GPX of an unknown lap is a 404; of another team's session a 404", async () => {

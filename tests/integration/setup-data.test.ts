@@ -13,6 +13,7 @@ import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import type { TeamRole } from "@/lib/auth/permissions";
 import { CIRCUIT } from "@/sample-logs/circuit";
 import { gateAcrossPath } from "@/lib/geo/gate-across-path";
+import { at } from "../fixtures/at";
 
 const request = vi.hoisted(() => ({ cookie: "" }));
 class Redirected extends Error {
@@ -210,7 +211,7 @@ describe("Engine ledger", () => {
     const { rpm, engines } = await enginesOfBike(ctx, bikeId);
     expect(rpm).toBeCloseTo(12780, 6);
     expect(engines).toHaveLength(1);
-    const l = engines[0].ledger;
+    const l = at(engines, 0).ledger;
     expect(l.sessionCount).toBe(2);
     // 0.1 h when fitted + 0.4 h + 0.3 h = 0.8 h of a 1 h interval → 80 % → the warning starts.
     expect(l.hours).toBeCloseTo(0.8, 9);
@@ -221,15 +222,15 @@ describe("Engine ledger", () => {
     expect(l.ceilingExceedances).toBe(3);
     expect(l.warning?.level).toBe("near");
     expect(l.warning?.caution).toMatch(/symptom, not a diagnosis/);
-    expect(engines[0].sessions.map((s) => [s.title, s.source])).toEqual([["FP1", "summary"], ["FP2", "summary"]]);
+    expect(at(engines, 0).sessions.map((s) => [s.title, s.source])).toEqual([["FP1", "summary"], ["FP2", "summary"]]);
   });
 
   it("no warning below 80 %; due at 100 %", async () => {
     const ctx = await requireTeam(new Headers({ cookie: a.members.engineer.cookie }));
     await Engine.update({ hoursAtInstall: 0.05 }, { where: { id: engineId } });
-    expect((await enginesOfBike(ctx, bikeId)).engines[0].ledger.warning).toBeNull(); // 75 %
+    expect(at((await enginesOfBike(ctx, bikeId)).engines, 0).ledger.warning).toBeNull(); // 75 %
     await Engine.update({ hoursAtInstall: 0.3 }, { where: { id: engineId } });
-    const l = (await enginesOfBike(ctx, bikeId)).engines[0].ledger; // 100 %
+    const l = at((await enginesOfBike(ctx, bikeId)).engines, 0).ledger; // 100 %
     expect(l.warning?.level).toBe("due");
     await Engine.update({ hoursAtInstall: 0.1 }, { where: { id: engineId } });
   });
@@ -237,9 +238,9 @@ describe("Engine ledger", () => {
   it("another rpm than the stored one is counted from the samples (none stored here: 0 s)", async () => {
     const ctx = await requireTeam(new Headers({ cookie: a.members.engineer.cookie }));
     const { engines } = await enginesOfBike(ctx, bikeId, 13500);
-    expect(engines[0].ledger.timeAboveRpmS).toBe(0);
-    expect(engines[0].ledger.hours).toBeCloseTo(0.8, 9);
-    expect(engines[0].sessions.every((s) => s.source === "samples")).toBe(true);
+    expect(at(engines, 0).ledger.timeAboveRpmS).toBe(0);
+    expect(at(engines, 0).ledger.hours).toBeCloseTo(0.8, 9);
+    expect(at(engines, 0).sessions.every((s) => s.source === "samples")).toBe(true);
   });
 
   it("another team cannot read the ledger", async () => {
@@ -282,7 +283,7 @@ describe("events", () => {
 
 describe("tracks", () => {
   const lap = CIRCUIT.centreline;
-  const gateAt = (i: number) => gateAcrossPath(lap[i], lap[i + 1], 30);
+  const gateAt = (i: number) => gateAcrossPath(at(lap, i), at(lap, i + 1), 30);
   const goodTrack = () => ({ name: "A track", gates: { startFinish: gateAt(0), sectors: [gateAt(200), gateAt(500)], pitEntry: null, pitExit: null }, corners: [{ name: "Turn 1", distanceM: 450 }], pitSpeedLimitKmh: 60 });
   const save = (id: number, payload: unknown) => saveTrackAction({}, form({ trackId: id, payload: JSON.stringify(payload) }));
 
@@ -380,7 +381,7 @@ describe("tracks", () => {
       expect(s).toMatchObject({ ok: true, message: "Track saved. 1 session analysed again." });
       // The analysis now finds laps with the new start/finish gate.
       const laps = await getSequelize().query<{ n: number }>("SELECT COUNT(*) AS n FROM laps WHERE session_id = ?", { replacements: [sessionId], type: QueryTypes.SELECT });
-      expect(Number(laps[0].n)).toBeGreaterThanOrEqual(2);
+      expect(Number(at(laps, 0).n)).toBeGreaterThanOrEqual(2);
     });
 
     it("refuses a session that already has a track, and another team's session", async () => {

@@ -10,6 +10,7 @@ import { requireTeam } from "@/lib/auth/guard";
 import { getSetupEffects, EFFECT_CAUTION } from "@/lib/data/setup-history";
 import { getSetupSheetView } from "@/lib/data/setup-sheets";
 import type { TeamRole } from "@/lib/auth/permissions";
+import { at } from "../fixtures/at";
 
 let team: TestTeam;
 let world: World;
@@ -27,16 +28,16 @@ beforeAll(async () => {
 
 describe("setup history", () => {
   it("keeps every version of a sheet readable in full", async () => {
-    const view = await getSetupSheetView(await ctx("viewer"), world.sessions.FP1);
+    const view = await getSetupSheetView(await ctx("viewer"), at(world.sessions, "FP1"));
     const v1 = view.versions.find((v) => v.version === 1)!;
     expect(v1.values.shockReboundClicks).toBe(12);
-    expect(view.versions[0].changed).toEqual(["shockReboundClicks"]);
+    expect(at(view.versions, 0).changed).toEqual(["shockReboundClicks"]);
   });
 
   it("shows the effect of the change between FP1's last setup and FP2", async () => {
     const { effects } = await getSetupEffects(await ctx("engineer"), { bikeId: world.bikes.one.id });
     expect(effects).toHaveLength(1);
-    const e = effects[0];
+    const e = at(effects, 0);
     expect([e.before.sessionId, e.after.sessionId]).toEqual([world.sessions.FP1, world.sessions.FP2]);
     // FP1 ended on version 2 (rebound 10), so only the preload changed.
     expect(e.changes).toEqual([{ field: "forkPreloadMm", before: 5, after: 6 }]);
@@ -46,7 +47,7 @@ describe("setup history", () => {
     expect(e.before.conditions).toBe("dry, track 31 °C");
     expect(e.after.conditions).toBe("dry, track 38 °C");
     // Best sectors: S1 30000→29950 (−50), S2 29000→28500 (−500), S3 33000→33050 (+50).
-    expect(e.sectors[0]).toEqual({ sector: 2, beforeMs: 29_000, afterMs: 28_500, deltaMs: -500 });
+    expect(at(e.sectors, 0)).toEqual({ sector: 2, beforeMs: 29_000, afterMs: 28_500, deltaMs: -500 });
     expect(e.bikeName).toBe("Bike 11");
     expect(EFFECT_CAUTION).toMatch(/One change rarely explains a lap time alone/);
   });

@@ -10,6 +10,7 @@ import { describe, it, expect, beforeAll, vi } from "vitest";
 import { initModels, Bike, Lap, Note, RideSession, Rider, SetupSheet } from "@/models";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import type { TeamRole } from "@/lib/auth/permissions";
+import { at } from "../fixtures/at";
 
 const request = vi.hoisted(() => ({ cookie: "" }));
 vi.mock("next/headers", () => ({ headers: async () => new Headers(request.cookie ? { cookie: request.cookie } : {}) }));
@@ -101,7 +102,8 @@ describe("setup sheet versions", () => {
       [1, a.members.engineer.userId, bike.id],
       [2, a.members.owner.userId, bike.id],
     ]);
-    const v1 = typeof rows[0].fields === "string" ? JSON.parse(rows[0].fields) : rows[0].fields;
+    const row1 = at(rows, 0);
+    const v1 = typeof row1.fields === "string" ? JSON.parse(row1.fields) : row1.fields;
     expect(v1).toMatchObject({ forkPreloadMm: 5, tyreRearColdBar: 1.6, engineMap: "B", tyreFrontCompound: "Soft slick", forkCompressionClicks: 12 });
 
     // Every role that sees the session reads the same history.
@@ -109,7 +111,7 @@ describe("setup sheet versions", () => {
       const view = await getSetupSheetView(await ctxOf(a, role), id);
       expect(view.canEdit).toBe(EDITORS.includes(role));
       expect(view.versions.map((v) => v.version)).toEqual([2, 1]);
-      const [latest, first] = view.versions;
+      const latest = at(view.versions, 0), first = at(view.versions, 1);
       expect(latest.values).toMatchObject({ forkPreloadMm: 6, tyreRearColdBar: 1.7, engineMap: null, forkSpringNmm: 10 });
       expect(latest.changed).toEqual(["forkPreloadMm", "tyreRearColdBar", "engineMap"]);
       expect(latest.previous).toEqual({ forkPreloadMm: 5, tyreRearColdBar: 1.6, engineMap: "B" });

@@ -20,6 +20,7 @@ import type { SessionAnalysisSummary } from "@/lib/analysis/analyse-series";
 import { createTeamWithRoles, type TestTeam } from "./helpers/teams";
 import { startUploadHarness, type UploadHarness } from "./helpers/ingest-harness";
 import { createSampleTrackAndBike, ingestSampleFile } from "./helpers/demo-track";
+import { at } from "../fixtures/at";
 
 let team: TestTeam;
 let up: UploadHarness;
@@ -89,7 +90,7 @@ describe("page analyses stored at ingest (three-laps-20hz.csv)", () => {
     const slip = await slipAnalysis(sq(), sessionId);
     expect(slip.zero.applied).toBe(true);
     expect(slip.exits.length).toBe(3);
-    const susp = await suspensionAnalysis(sq(), sessionId, { lap: slip.exits[0].lap });
+    const susp = await suspensionAnalysis(sq(), sessionId, { lap: at(slip.exits, 0).lap });
     expect(susp.fork!.position.timePct.reduce((a, b) => a + b, 0)).toBeCloseTo(100, 6);
     expect(susp.shock!.velocity.timePct.reduce((a, b) => a + b, 0)).toBeCloseTo(100, 6);
     const brief = await riderBrief(sq(), sessionId);
@@ -109,7 +110,7 @@ describe("page analyses stored at ingest (three-laps-20hz.csv)", () => {
       { part: "brief", mark: (d) => ((d.brief as Record<string, unknown>).outline = -1), read: async () => (await riderBrief(sq(), sessionId)).outline },
     ];
     for (const c of cases) {
-      const [row] = await sq().query<{ data: string }>("SELECT data FROM session_analysis_parts WHERE session_id = ? AND part = ?", { replacements: [sessionId, c.part], type: QueryTypes.SELECT });
+      const row = at(await sq().query<{ data: string }>("SELECT data FROM session_analysis_parts WHERE session_id = ? AND part = ?", { replacements: [sessionId, c.part], type: QueryTypes.SELECT }), 0);
       const marked = JSON.parse(row.data) as Record<string, unknown>;
       c.mark(marked);
       await sq().query("UPDATE session_analysis_parts SET data = ? WHERE session_id = ? AND part = ?", { replacements: [JSON.stringify(marked), sessionId, c.part] });
@@ -146,11 +147,11 @@ describe("page analyses stored at ingest (three-laps-20hz.csv)", () => {
     const briefBase = await loadAnalysisBase(sq(), sessionId, PAGE_ROLES.brief);
     expect(stale).toEqual(computeBrief(briefBase));
 
-    const oldBasis = (await parts())[0].basis;
+    const oldBasis = at((await parts()), 0).basis;
     await reanalyseSession(sq(), sessionId);
     const rows = await parts();
     expect(new Set(rows.map((r) => r.basis)).size).toBe(1);
-    expect(rows[0].basis).not.toBe(oldBasis);
+    expect(at(rows, 0).basis).not.toBe(oldBasis);
     expect((await riderBrief(sq(), sessionId)).bestLap).toBe(stale.bestLap);
     await expectStoredEqualsComputed();
   }, 120_000);
@@ -162,7 +163,7 @@ describe("page analyses stored at ingest (three-laps-20hz.csv)", () => {
     await reanalyseSession(sq(), sessionId);
     const slip = await slipAnalysis(sq(), sessionId);
     expect(slip.cornerSource).toBe("found");
-    expect(slip.exits[0].exits[0].name).toBe("Corner 1");
+    expect(at(at(slip.exits, 0).exits, 0).name).toBe("Corner 1");
     await expectStoredEqualsComputed();
   }, 120_000);
 });

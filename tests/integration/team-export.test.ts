@@ -15,6 +15,7 @@ import Papa from "papaparse";
 import { initModels, LogFile, Note, RideSession } from "@/models";
 import { createTeamWithRoles, req, params, type TestTeam } from "./helpers/teams";
 import { buildWorld, type World } from "./helpers/record-world";
+import { at } from "../fixtures/at";
 
 const route = await import("@/app/api/team/export/route");
 
@@ -37,7 +38,7 @@ beforeAll(async () => {
   ]);
   const log = await LogFile.create({ teamId: team.teamId, uploadKey: `k-${Date.now()}`, name: "original.csv", bytes: original.length, sha256: null, contentType: "text/csv", url: `http://127.0.0.1:${port}/f/original.csv`, uploadedBy: team.members.engineer.userId });
   await RideSession.update({ logFileId: log.id }, { where: { id: world.sessions["=Exp FP"] } });
-  await Note.create({ teamId: team.teamId, sessionId: world.sessions["=Exp FP"], lapNumber: 2, authorId: team.members.rider.userId, text: "Front pushes in Turn 3" });
+  await Note.create({ teamId: team.teamId, sessionId: at(world.sessions, "=Exp FP"), lapNumber: 2, authorId: team.members.rider.userId, text: "Front pushes in Turn 3" });
 });
 afterAll(() => {
   server?.close();
@@ -70,18 +71,18 @@ describe("team export", () => {
     const sessions = Papa.parse<Record<string, string>>(read("sessions.csv").toString(), { header: true, skipEmptyLines: true }).data;
     expect(sessions).toHaveLength(1);
     // A title starting with "=" is written with a leading quote (OWASP CSV injection guidance).
-    expect(sessions[0].title).toBe("'=Exp FP");
-    expect(sessions[0].best_lap_s).toBe("91.5");
-    expect(Number(sessions[0].best_three_mean_s)).toBeCloseTo((92 + 91.5 + 91.75) / 3, 3);
-    expect(sessions[0].top_speed_m_per_s).toBe("81");
-    expect(sessions[0].setup_version).toBe("2");
-    expect([sessions[0].findings_open, sessions[0].findings_acknowledged]).toEqual(["1", "1"]);
-    expect(sessions[0].original_file).toBe(up);
+    expect(at(sessions, 0).title).toBe("'=Exp FP");
+    expect(at(sessions, 0).best_lap_s).toBe("91.5");
+    expect(Number(at(sessions, 0).best_three_mean_s)).toBeCloseTo((92 + 91.5 + 91.75) / 3, 3);
+    expect(at(sessions, 0).top_speed_m_per_s).toBe("81");
+    expect(at(sessions, 0).setup_version).toBe("2");
+    expect([at(sessions, 0).findings_open, at(sessions, 0).findings_acknowledged]).toEqual(["1", "1"]);
+    expect(at(sessions, 0).original_file).toBe(up);
 
     const laps = Papa.parse<Record<string, string>>(read("laps.csv").toString(), { header: true, skipEmptyLines: true }).data;
     expect(laps.map((l) => l.lap_time_s)).toEqual(["92", "91.5", "91.75"]);
-    expect(laps[1].sector_times_s).toBe("29.9|28.9|32.7");
-    expect(laps[1].start_time_s).toBe("92");
+    expect(at(laps, 1).sector_times_s).toBe("29.9|28.9|32.7");
+    expect(at(laps, 1).start_time_s).toBe("92");
 
     const setups = JSON.parse(read("setup-sheets.json").toString());
     expect(setups.map((s: { version: number; fields: { forkPreloadMm: number } }) => [s.version, s.fields.forkPreloadMm])).toEqual([[1, 5], [2, 6]]);

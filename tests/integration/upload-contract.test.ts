@@ -13,6 +13,7 @@ import { genUploader } from "uploadthing/client";
 import { createLogFileRouter, isStoredFileUrl, memoryGrantStore, uploadDenied, type CompletedLogFile, type LogFileRouter, type Uploader } from "../../lib/uploads/file-router";
 import { makeUploadthingToken, startUploadFake, type UploadFake } from "../../workers/services/upload-fake";
 import { FetchBackedXhr, serve } from "./helpers/upload-harness";
+import { at } from "../fixtures/at";
 
 const apiKey = "sk_contract_test_key";
 const token = makeUploadthingToken({ apiKey, appId: "lapbench-contract" });
@@ -99,11 +100,11 @@ beforeEach(() => {
 describe("upload contract: real SDK ↔ local upload fake", () => {
   it("uploads a log file: middleware metadata reaches onComplete, serverData reaches the browser, bytes round-trip", async () => {
     const file = csvFile("Practice 1 – rear.csv", 200_000);
-    const [result] = await client(app.url).uploadFiles("logFile", { files: [file] });
+    const result = at(await client(app.url).uploadFiles("logFile", { files: [file] }), 0);
 
     expect(completed).toHaveLength(1);
-    expect(completed[0].metadata).toEqual({ userId: "user-7", teamId: "team-3" });
-    expect(completed[0].file).toMatchObject({ key: result.key, name: "Practice 1 – rear.csv", size: 200_000, ufsUrl: result.ufsUrl });
+    expect(at(completed, 0).metadata).toEqual({ userId: "user-7", teamId: "team-3" });
+    expect(at(completed, 0).file).toMatchObject({ key: result.key, name: "Practice 1 – rear.csv", size: 200_000, ufsUrl: result.ufsUrl });
     expect(result.serverData).toEqual({ sessionId: nextSessionId - 1 });
 
     const served = await fetch(result.ufsUrl);
@@ -121,7 +122,7 @@ describe("upload contract: real SDK ↔ local upload fake", () => {
 
   it("delivers the completion through the dev-mode stream (isDev) as well", async () => {
     const file = csvFile("warmup.csv", 5_000);
-    const [result] = await client(devApp.url).uploadFiles("logFile", { files: [file] });
+    const result = at(await client(devApp.url).uploadFiles("logFile", { files: [file] }), 0);
     expect(result.serverData).toEqual({ sessionId: nextSessionId - 1 });
     expect(completed.map((c) => c.file.key)).toEqual([result.key]);
     expect(sha256(await (await fetch(result.ufsUrl)).arrayBuffer())).toBe(sha256(await file.arrayBuffer()));
@@ -205,7 +206,7 @@ describe("upload contract: real SDK ↔ local upload fake", () => {
     // The grant with the right file: accepted, and the team comes from the grant, not the body.
     await send(body({ grant, teamId: "team-other", userId: "attacker" }, `${fake.url}/f/plantedkey1`));
     await waitFor(() => completed.length === 1);
-    expect(completed[0].metadata).toEqual({ userId: "user-7", teamId: "team-3" });
+    expect(at(completed, 0).metadata).toEqual({ userId: "user-7", teamId: "team-3" });
     // Used once: a replay of the same grant is refused.
     await send(body({ grant }, `${fake.url}/f/plantedkey2`, "plantedkey2"));
     await new Promise((r) => setTimeout(r, 300));
@@ -230,7 +231,7 @@ describe("upload contract: real SDK ↔ local upload fake", () => {
       headers: { "content-type": "application/json" },
       body: JSON.stringify({ files: [{ name: file.name, size: file.size, type: file.type, lastModified: 1 }], input: null }),
     });
-    const [{ url, key }] = (await presign.json()) as Array<{ url: string; key: string }>;
+    const { url, key } = at((await presign.json()) as Array<{ url: string; key: string }>, 0);
     const put = (target: string, part: Buffer, start: number) => {
       const form = new FormData();
       form.append("file", new Blob([new Uint8Array(part)]));

@@ -187,8 +187,8 @@ export async function startStack(o: StackOptions): Promise<RunningStack> {
     // Demo sign-ins (with a published password) only when asked for, or into a fresh install.
     let seed = o.seed === true;
     if (o.seed === "if-empty") {
-      const [{ n }] = await s.query<{ n: number }>("SELECT COUNT(*) AS n FROM user", { type: QueryTypes.SELECT });
-      seed = Number(n) === 0;
+      const [row] = await s.query<{ n: number }>("SELECT COUNT(*) AS n FROM user", { type: QueryTypes.SELECT });
+      seed = Number(row?.n ?? 0) === 0;
     }
     await s.close();
 

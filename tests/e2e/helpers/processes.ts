@@ -18,6 +18,7 @@ import { migrateUp } from "../../../models/migrate";
 import { createAuth } from "../../../lib/auth/create-auth";
 import type { AppLogFileRouter } from "../../../lib/uploads/log-file-router";
 import { FetchBackedXhr } from "../../integration/helpers/upload-harness";
+import { at } from "../../fixtures/at";
 
 export const ROOT = path.resolve(__dirname, "../../..");
 export const PASSWORD = "process-test-password-1";
@@ -208,7 +209,7 @@ export async function signInHttp(appUrl: string, email: string, password = PASSW
 export async function uploadViaSdk(appUrl: string, cookie: string, file: File): Promise<{ sessionId: number }> {
   (globalThis as Record<string, unknown>).XMLHttpRequest = FetchBackedXhr;
   const client = genUploader<AppLogFileRouter>({ url: `${appUrl}/api/uploadthing`, package: "lapbench-process-test", fetch: (...a) => globalThis.fetch(...a) });
-  const [res] = await client.uploadFiles("logFile", { files: [file], headers: { cookie } });
+  const res = at(await client.uploadFiles("logFile", { files: [file], headers: { cookie } }), 0);
   return res.serverData as { sessionId: number };
 }
 

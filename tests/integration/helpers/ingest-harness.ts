@@ -10,6 +10,7 @@ import path from "node:path";
 import { makeUploadthingToken, startUploadFake, type UploadFake } from "@/workers/services/upload-fake";
 import { logFileRouter, type AppLogFileRouter } from "@/lib/uploads/log-file-router";
 import { FetchBackedXhr, serve } from "./upload-harness";
+import { at } from "../../fixtures/at";
 
 export interface UploadHarness {
   upload(file: File, cookie: string): Promise<{ sessionId: number }>;
@@ -35,7 +36,7 @@ export async function startUploadHarness(): Promise<UploadHarness> {
   return {
     storageDir,
     async upload(file, cookie) {
-      const [res] = await client.uploadFiles("logFile", { files: [file], headers: { cookie } });
+      const res = at(await client.uploadFiles("logFile", { files: [file], headers: { cookie } }), 0);
       return res.serverData as { sessionId: number };
     },
     async close() {

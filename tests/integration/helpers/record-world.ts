@@ -5,6 +5,7 @@
  */
 import { initModels, Bike, Engine, Finding, Lap, RaceEvent, RideSession, Rider, SetupSheet, Track } from "@/models";
 import type { TestTeam } from "./teams";
+import { at } from "../../fixtures/at";
 
 export interface WorldSession {
   title: string;
@@ -51,8 +52,8 @@ export async function buildWorld(team: TestTeam, sessions: WorldSession[]): Prom
     ids[s.title] = row.id;
     let t = 0;
     for (let i = 0; i < s.lapsMs.length; i++) {
-      await Lap.create({ sessionId: row.id, number: i + 1, startTimeS: t, endTimeS: t + s.lapsMs[i] / 1000, lapTimeMs: s.lapsMs[i], distanceM: 4000, sectorTimesMs: s.sectorsMs?.[i] ?? null, topSpeedMps: s.topSpeedsMs?.[i] ?? null, stats: null });
-      t += s.lapsMs[i] / 1000;
+      await Lap.create({ sessionId: row.id, number: i + 1, startTimeS: t, endTimeS: t + at(s.lapsMs, i) / 1000, lapTimeMs: at(s.lapsMs, i), distanceM: 4000, sectorTimesMs: s.sectorsMs?.[i] ?? null, topSpeedMps: s.topSpeedsMs?.[i] ?? null, stats: null });
+      t += at(s.lapsMs, i) / 1000;
     }
     for (let i = 0; i < (s.findings?.open ?? 0) + (s.findings?.acknowledged ?? 0); i++) {
       const ack = i >= (s.findings?.open ?? 0);

@@ -6,6 +6,7 @@ import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
 import { trackGatesForAnalysis } from "@/lib/data/tracks";
 import { demoTrackInput } from "@/workers/demo-track";
 import { readSampleCsv } from "../findings/read-sample-csv";
+import { at } from "../../fixtures/at";
 
 describe("mergeThresholds: defaults ⊕ bike ⊕ track", () => {
   it.each([
@@ -37,11 +38,11 @@ describe("pitLaneTimes on the generated three-lap log (sample-logs/files/three-l
     expect(ranges).toHaveLength(truth.pitLane.length);
     const exit = truth.gateCrossings.find((c) => c.gate === "pit_exit")!.timeS;
     const entry = truth.gateCrossings.find((c) => c.gate === "pit_entry")!.timeS;
-    expect(ranges[0].startTimeS).toBe(0); // the log begins with the bike in the box
+    expect(at(ranges, 0).startTimeS).toBe(0); // the log begins with the bike in the box
     // 20 Hz fixes in the 60 km/h lane are 0.8 m apart; the generator's 0.3 m GPS noise moves a crossing ~20 ms.
-    expect(Math.abs(ranges[0].endTimeS - exit)).toBeLessThan(0.05);
-    expect(Math.abs(ranges[1].startTimeS - entry)).toBeLessThan(0.05);
-    expect(ranges[1].endTimeS).toBeGreaterThanOrEqual(truth.stoppedAtS);
+    expect(Math.abs(at(ranges, 0).endTimeS - exit)).toBeLessThan(0.05);
+    expect(Math.abs(at(ranges, 1).startTimeS - entry)).toBeLessThan(0.05);
+    expect(at(ranges, 1).endTimeS).toBeGreaterThanOrEqual(truth.stoppedAtS);
   });
 
   it("no pit gates: no pit-lane times", () => {

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { findCorners } from "@/lib/braking/find-corners";
 import { brakingPoints } from "@/lib/braking/braking-points";
 import { compareBraking } from "@/lib/braking/compare-braking";
+import { at } from "../../fixtures/at";
 
 const BAR = 1e5; // NIST SP 811 App. B: bar → 100 000 Pa (exact)
 
@@ -43,9 +44,9 @@ describe("findCorners", () => {
     const c = findCorners(lap.speedMps, lap.distanceM, { minProminenceMps: 5 });
     expect(c.map((x) => x.distanceM)).toEqual([500, 1200]);
     expect(c.map((x) => x.name)).toEqual(["Corner 1", "Corner 2"]);
-    expect(c[0].minSpeedMps).toBeCloseTo(20, 5);
+    expect(at(c, 0).minSpeedMps).toBeCloseTo(20, 5);
     // Prominence of corner 2: the lower shoulder is 70 m/s on both sides → 70 − 35 = 35 m/s.
-    expect(c[1].prominenceMps).toBeCloseTo(35, 5);
+    expect(at(c, 1).prominenceMps).toBeCloseTo(35, 5);
     // With a 1 m/s prominence floor the 2 m/s lift becomes a "corner".
     expect(findCorners(lap.speedMps, lap.distanceM, { minProminenceMps: 1 })).toHaveLength(3);
   });
@@ -57,21 +58,21 @@ describe("brakingPoints", () => {
     const pts = brakingPoints(lap, [{ name: "Corner 1", distanceM: 500 }, { name: "Corner 2", distanceM: 1200 }], { thresholdPa: 5 * BAR });
     // Corner 1: braking distance (70² − 20²)/(2·10) = 225 m → onset at 275 m (kinematics).
     // The lever jumps 0 → 12 bar between 274 and 275 m; the 5 bar crossing interpolates to 274 + 5/12 m.
-    expect(pts[0].onsetDistanceM!).toBeCloseTo(274 + 5 / 12, 6);
+    expect(at(pts, 0).onsetDistanceM!).toBeCloseTo(274 + 5 / 12, 6);
     // Release between 480 and 481 m: 480 + 7/12.
-    expect(pts[0].releaseDistanceM!).toBeCloseTo(480 + 7 / 12, 6);
-    expect(pts[0].peakPressurePa).toBeCloseTo(12 * BAR, 0);
-    expect(pts[0].minSpeedMps).toBeCloseTo(20, 5);
-    expect(pts[0].onsetToApexM!).toBeCloseTo(500 - (274 + 5 / 12), 6);
+    expect(at(pts, 0).releaseDistanceM!).toBeCloseTo(480 + 7 / 12, 6);
+    expect(at(pts, 0).peakPressurePa).toBeCloseTo(12 * BAR, 0);
+    expect(at(pts, 0).minSpeedMps).toBeCloseTo(20, 5);
+    expect(at(pts, 0).onsetToApexM!).toBeCloseTo(500 - (274 + 5 / 12), 6);
     // Corner 2: (70² − 35²)/20 = 183.75 m → onset 1016.25 m; samples at 1 m: first ≥ is 1017,
     // crossing 1016 + 5/12.
-    expect(pts[1].onsetDistanceM!).toBeCloseTo(1016 + 5 / 12, 6);
+    expect(at(pts, 1).onsetDistanceM!).toBeCloseTo(1016 + 5 / 12, 6);
   });
 
   it("reports a corner taken without braking", () => {
     const lap = makeLap(0);
     lap.brakeFrontPa.fill(0);
-    const [pt] = brakingPoints(lap, [{ name: "Corner 1", distanceM: 500 }]);
+    const pt = at(brakingPoints(lap, [{ name: "Corner 1", distanceM: 500 }]), 0);
     expect(pt.braked).toBe(false);
     expect(pt.onsetDistanceM).toBeNull();
     expect(pt.minSpeedMps).toBeCloseTo(20, 5);
@@ -85,11 +86,11 @@ describe("compareBraking", () => {
     const late = brakingPoints(makeLap(12), corners);
     const early = brakingPoints(makeLap(-7), corners);
     const dl = compareBraking(late, ref);
-    expect(dl[0].onsetEarlierM!).toBeCloseTo(-12, 6);
-    expect(dl[0].text).toBe("Corner 1: you braked 12 m later than on your best lap.");
+    expect(at(dl, 0).onsetEarlierM!).toBeCloseTo(-12, 6);
+    expect(at(dl, 0).text).toBe("Corner 1: you braked 12 m later than on your best lap.");
     const de = compareBraking(early, ref, { referenceLabel: "lap 4" });
-    expect(de[1].onsetEarlierM!).toBeCloseTo(7, 6);
-    expect(de[1].text).toBe("Corner 2: you braked 7 m earlier than on lap 4.");
-    expect(compareBraking(ref, ref)[0].text).toBe("Corner 1: you braked at about the same point as on your best lap.");
+    expect(at(de, 1).onsetEarlierM!).toBeCloseTo(7, 6);
+    expect(at(de, 1).text).toBe("Corner 2: you braked 7 m earlier than on lap 4.");
+    expect(at(compareBraking(ref, ref), 0).text).toBe("Corner 1: you braked at about the same point as on your best lap.");
   });
 });

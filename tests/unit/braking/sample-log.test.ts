@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { brakingPoints } from "@/lib/braking/braking-points";
 import { findCorners } from "@/lib/braking/find-corners";
 import { readSampleCsv } from "../findings/read-sample-csv";
+import { at } from "../../fixtures/at";
 
 /**
  * Braking points and corners on the generated three-lap sample log, against the generator's
@@ -25,14 +26,14 @@ describe("braking on the generated three-lap sample log", () => {
 
   function lapData(l: LapTruth) {
     let a = 0;
-    while (t[a] < l.startS) a++;
+    while (at(t, a) < l.startS) a++;
     let b = a;
-    while (b < t.length && t[b] < l.endS) b++;
+    while (b < t.length && at(t, b) < l.endS) b++;
     const v = s.channels.speed_front!.subarray(a, b);
     const d = new Float64Array(b - a);
-    for (let i = 1; i < d.length; i++) d[i] = d[i - 1] + 0.5 * (v[i] + v[i - 1]) * (t[a + i] - t[a + i - 1]);
-    const k = l.distanceM / d[d.length - 1];
-    for (let i = 0; i < d.length; i++) d[i] *= k;
+    for (let i = 1; i < d.length; i++) d[i] = at(d, i - 1) + 0.5 * (at(v, i) + at(v, i - 1)) * (at(t, a + i) - at(t, a + i - 1));
+    const k = l.distanceM / at(d, d.length - 1);
+    for (let i = 0; i < d.length; i++) d[i]! *= k;
     return { distanceM: d, speedMps: v, brakeFrontPa: s.channels.brake_front!.subarray(a, b) };
   }
 
@@ -45,8 +46,8 @@ describe("braking on the generated three-lap sample log", () => {
       thresholdPa: truth.brakeOnsetThresholdBar * 1e5, // bar → Pa (NIST SP 811, exact)
     });
     lap.corners.forEach((c, i) => {
-      if (c.brakeOnsetDistanceM === null) expect(pts[i].braked).toBe(false);
-      else expect(Math.abs(pts[i].onsetDistanceM! - c.brakeOnsetDistanceM), c.name).toBeLessThan(1.5);
+      if (c.brakeOnsetDistanceM === null) expect(at(pts, i).braked).toBe(false);
+      else expect(Math.abs(at(pts, i).onsetDistanceM! - c.brakeOnsetDistanceM), c.name).toBeLessThan(1.5);
     });
   });
 

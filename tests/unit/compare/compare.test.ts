@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { decimateMinMax } from "@/lib/compare/decimate-min-max";
 import { resampleOnDistance } from "@/lib/compare/resample-on-distance";
 import { runningGap } from "@/lib/compare/running-gap";
+import { at } from "../../fixtures/at";
 
 /** A lap at constant speed, sampled at `hz`, starting at session time t0. */
 function constantLap(speedMps: number, lengthM: number, hz: number, t0: number) {
@@ -26,8 +27,8 @@ describe("runningGap", () => {
     expect(g.distanceM[4000]).toBe(4000);
     let worst = 0;
     for (let i = 0; i < g.distanceM.length; i++) {
-      const d = g.distanceM[i];
-      worst = Math.max(worst, Math.abs(g.gapS[i] - (d / 49 - d / 50)));
+      const d = at(g.distanceM, i);
+      worst = Math.max(worst, Math.abs(at(g.gapS, i) - (d / 49 - d / 50)));
     }
     expect(worst).toBeLessThan(1e-9);
     expect(g.gapS[4000]).toBeCloseTo(4000 / 49 - 4000 / 50, 9); // 1.632653 s lost by B
@@ -76,26 +77,26 @@ describe("decimateMinMax", () => {
     expect(d.x[d.x.length - 1]).toBe(x[n - 1]);
     // Brute force per column: the kept points include the column's extreme values.
     const kept = new Map<number, number>();
-    for (let i = 0; i < d.x.length; i++) kept.set(d.x[i], d.y[i]);
-    const span = x[n - 1] - x[0];
+    for (let i = 0; i < d.x.length; i++) kept.set(at(d.x, i), at(d.y, i));
+    const span = at(x, n - 1) - at(x, 0);
     const colMin = new Float64Array(width).fill(Infinity);
     const colMax = new Float64Array(width).fill(-Infinity);
     const keptMin = new Float64Array(width).fill(Infinity);
     const keptMax = new Float64Array(width).fill(-Infinity);
     for (let i = 1; i < n - 1; i++) {
       if (Number.isNaN(y[i])) continue;
-      const c = Math.min(width - 1, Math.floor(((x[i] - x[0]) / span) * width));
-      colMin[c] = Math.min(colMin[c], y[i]);
-      colMax[c] = Math.max(colMax[c], y[i]);
-      if (kept.has(x[i]) && kept.get(x[i]) === y[i]) {
-        keptMin[c] = Math.min(keptMin[c], y[i]);
-        keptMax[c] = Math.max(keptMax[c], y[i]);
+      const c = Math.min(width - 1, Math.floor(((at(x, i) - at(x, 0)) / span) * width));
+      colMin[c] = Math.min(at(colMin, c), at(y, i));
+      colMax[c] = Math.max(at(colMax, c), at(y, i));
+      if (kept.has(at(x, i)) && kept.get(at(x, i)) === at(y, i)) {
+        keptMin[c] = Math.min(at(keptMin, c), at(y, i));
+        keptMax[c] = Math.max(at(keptMax, c), at(y, i));
       }
     }
     expect(Array.from(keptMin)).toEqual(Array.from(colMin));
     expect(Array.from(keptMax)).toEqual(Array.from(colMax));
     // x stays ascending, and the NaN gap survives.
-    for (let i = 1; i < d.x.length; i++) expect(d.x[i]).toBeGreaterThan(d.x[i - 1]);
+    for (let i = 1; i < d.x.length; i++) expect(at(d.x, i)).toBeGreaterThan(at(d.x, i - 1));
     expect(Array.from(d.y).some(Number.isNaN)).toBe(true);
   });
 

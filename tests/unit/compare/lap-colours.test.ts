@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { differenceCiede2000, filterDeficiencyDeuter, filterDeficiencyProt, filterDeficiencyTrit, parse, type Color } from "culori";
 import { LAP_COLOURS, OUTLINE_RAMP, rampColour } from "@/components/compare/lap-colours";
+import { at } from "../../fixtures/at";
 
 // Colour-vision deficiency simulated with culori's filters, which implement Machado, Oliveira &
 // Fernandes (2009), "A physiologically-based model for simulation of color vision deficiency"
@@ -11,7 +12,7 @@ const VISION = { normal: sim((c) => c), protanopia: sim(filterDeficiencyProt(1))
 
 function minPairDifference(colours: readonly string[], see: (c: string) => Color): number {
   let min = Infinity;
-  for (let i = 0; i < colours.length; i++) for (let j = i + 1; j < colours.length; j++) min = Math.min(min, deltaE(see(colours[i]), see(colours[j])));
+  for (let i = 0; i < colours.length; i++) for (let j = i + 1; j < colours.length; j++) min = Math.min(min, deltaE(see(at(colours, i)), see(at(colours, j))));
   return min;
 }
 
@@ -36,10 +37,10 @@ describe("lap colours", () => {
 
 describe("outline ramp", () => {
   it("runs graphite → teal → amber", () => {
-    expect(rampColour(0)).toBe(`rgb(${OUTLINE_RAMP[0].join(",")})`);
+    expect(rampColour(0)).toBe(`rgb(${at(OUTLINE_RAMP, 0).join(",")})`);
     expect(rampColour(0.5)).toBe("rgb(43,179,166)");
     expect(rampColour(1)).toBe("rgb(245,158,27)");
     // Halfway between graphite and teal, by linear interpolation of the stops.
-    expect(rampColour(0.25)).toBe(`rgb(${[0, 1, 2].map((k) => Math.round((OUTLINE_RAMP[0][k] + OUTLINE_RAMP[1][k]) / 2)).join(",")})`);
+    expect(rampColour(0.25)).toBe(`rgb(${[0, 1, 2].map((k) => Math.round((at(at(OUTLINE_RAMP, 0), k) + at(at(OUTLINE_RAMP, 1), k)) / 2)).join(",")})`);
   });
 });

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { gather, gridColumns, keptIndices, markMinMax, resampleDecimate } from "@/lib/compare/resample-decimate";
 import { decimateMinMax } from "@/lib/compare/decimate-min-max";
 import { resampleOnDistance } from "@/lib/compare/resample-on-distance";
+import { at } from "../../fixtures/at";
 
 /** Deterministic pseudo-random numbers (mulberry32), so a failure repeats. */
 function rng(seed: number) {
@@ -37,7 +38,7 @@ describe("resampleDecimate: resampling", () => {
     const d = new Float64Array(n);
     const v = new Float64Array(n);
     for (let i = 1; i < n; i++) {
-      d[i] = d[i - 1] + (r() < 0.02 ? 0 : r() * 1.4); // stops repeat a distance
+      d[i] = at(d, i - 1) + (r() < 0.02 ? 0 : r() * 1.4); // stops repeat a distance
       v[i] = r() < 0.3 ? NaN : Math.sin(i / 40) * 50 + r();
     }
     v[0] = 3;
@@ -71,8 +72,8 @@ describe("resampleDecimate: decimation in the same pass", () => {
     expect(Array.from(keptIndices(keep))).toEqual([...expected].sort((a, b) => a - b));
     // markMinMax, the decimation half alone, keeps decimateMinMax's points of a series with NaN inside.
     const alone = new Uint8Array(m);
-    markMinMax(series[0], cols, alone);
-    expect(Array.from(keptIndices(alone))).toEqual(Array.from(decimateMinMax(grid, series[0], width).x));
+    markMinMax(at(series, 0), cols, alone);
+    expect(Array.from(keptIndices(alone))).toEqual(Array.from(decimateMinMax(grid, at(series, 0), width).x));
     expect(keptIndices(keep).length).toBeLessThanOrEqual(3 * (3 * width) + 2);
   });
 

@@ -12,6 +12,7 @@ import { collapseFindings, formatLapList } from "@/lib/findings/collapse-finding
 import { restingPressure } from "@/lib/findings/detect-brake-on-straight";
 import type { LapSpan } from "@/lib/findings/types";
 import { analyseSeries } from "@/lib/analysis/analyse-series";
+import { at } from "../../fixtures/at";
 
 const BAR = 1e5; // NIST SP 811 App. B: bar → 100 000 Pa (exact)
 
@@ -27,7 +28,7 @@ function addNoise(x: Float32Array, ampPa: number, seed = 12345): void {
   let s = seed;
   for (let i = 0; i < x.length; i++) {
     s = (s * 16807) % 2147483647;
-    x[i] += ampPa * (2 * (s / 2147483647) - 1);
+    x[i]! += ampPa * (2 * (s / 2147483647) - 1);
   }
 }
 
@@ -60,7 +61,7 @@ describe("repeats of one kind on one channel collapse into one finding", () => {
     for (const l of laps.slice(1, -1)) {
       if (l.number === 4) continue;
       const mid = 0.5 * (l.startTimeS + l.endTimeS);
-      for (let i = 0; i < lean.length; i++) if (series.timeS[i] >= mid - 12.5 && series.timeS[i] <= mid + 12.5) lean[i] = 3.25;
+      for (let i = 0; i < lean.length; i++) if (at(series.timeS, i) >= mid - 12.5 && at(series.timeS, i) <= mid + 12.5) lean[i] = 3.25;
     }
   });
 
@@ -74,11 +75,11 @@ describe("repeats of one kind on one channel collapse into one finding", () => {
     expect(events.map((f) => f.lapNumber)).toEqual(stuckLaps);
     const one = collapseFindings(events);
     expect(one).toHaveLength(1);
-    expect(one[0].occurrences).toHaveLength(stuckLaps.length);
-    expect(one[0].message).toContain(`${stuckLaps.length} times, ${formatLapList(stuckLaps)}`);
+    expect(at(one, 0).occurrences).toHaveLength(stuckLaps.length);
+    expect(at(one, 0).message).toContain(`${stuckLaps.length} times, ${formatLapList(stuckLaps)}`);
     const worst = Math.max(...events.map((f) => f.measuredValue));
-    expect(one[0].measuredValue).toBe(worst);
-    expect(one[0].message).toMatch(/worst \d+\.\d\d s/);
+    expect(at(one, 0).measuredValue).toBe(worst);
+    expect(at(one, 0).message).toMatch(/worst \d+\.\d\d s/);
   });
 
   it("analyseSeries stores one row for them (acknowledged once), and counts every event", () => {
@@ -110,11 +111,11 @@ describe("brake pressure on a straight against the session's resting pressure", 
 
     const found = runFindings(series, { laps }).filter((f) => f.kind === "brake_on_straight");
     expect(found).toHaveLength(1);
-    expect(found[0].lapNumber).toBe(truth.lap);
+    expect(at(found, 0).lapNumber).toBe(truth.lap);
     // Inside the planted stretch (truth: pressure ≥ 1 bar while throttle > 80 %) or its ramp.
-    expect(found[0].startTimeS).toBeLessThanOrEqual(truth.startS);
-    expect(found[0].endTimeS).toBeGreaterThanOrEqual(truth.endS);
-    expect(found[0].measuredValue / BAR).toBeGreaterThan(1.4);
+    expect(at(found, 0).startTimeS).toBeLessThanOrEqual(truth.startS);
+    expect(at(found, 0).endTimeS).toBeGreaterThanOrEqual(truth.endS);
+    expect(at(found, 0).measuredValue / BAR).toBeGreaterThan(1.4);
 
     // With only the absolute 2 bar (the old rule) it is missed.
     expect(runFindings(series, { laps, thresholds: { brakeOnStraightRestMarginPa: 1e9 } }).filter((f) => f.kind === "brake_on_straight")).toHaveLength(0);

@@ -12,12 +12,13 @@ const TO_SI: Record<string, number> = { "km/h": 1 / 3.6, bar: 1e5, mm: 1e-3 };
 export function readSampleCsv(file: string): SessionSeries {
   const parsed = Papa.parse<string[]>(readFileSync(file, "utf8"), { comments: "#", skipEmptyLines: true });
   const [header, ...rows] = parsed.data;
+  if (!header) throw new Error(`${file}: no header row`);
   const byLabel = new Map(Object.entries(ROLE_LABEL).map(([role, label]) => [label, role as ChannelRole]));
   const timeS = new Float64Array(rows.length);
   const channels: SessionSeries["channels"] = {};
   header.forEach((h, col) => {
     const m = /^(.*?)\s*(?:\[(.*)\])?$/.exec(h.trim())!;
-    const name = m[1];
+    const name = m[1] ?? "";
     const factor = TO_SI[m[2] ?? ""] ?? 1;
     if (name === "Time") {
       rows.forEach((r, i) => (timeS[i] = Number(r[col]) * (m[2] === "ms" ? 1e-3 : 1)));

@@ -4,6 +4,7 @@ import { runFindings } from "@/lib/findings/run-findings";
 import { CAUTION_TEXT } from "@/lib/findings/caution";
 import { DEFAULT_THRESHOLDS } from "@/lib/findings/thresholds";
 import { FINDING_KINDS, type FindingKind, type LapSpan } from "@/lib/findings/types";
+import { at } from "../../fixtures/at";
 
 const BAR = 1e5; // NIST SP 811 App. B: bar → 100 000 Pa (exact)
 const KMH = 1 / 3.6; // NIST SP 811 App. B: km/h → m/s (exact)
@@ -34,7 +35,7 @@ function makeSession(plant: boolean): { series: SessionSeries; laps: LapSpan[] }
   const lon = new Float32Array(n).fill(NaN);
   let dist = 0;
   for (let i = 0; i < n; i++) {
-    const t = timeS[i];
+    const t = at(timeS, i);
     const inPit = t >= 110;
     let v = inPit ? 14 + 0.5 * Math.sin(t) : 45 + 20 * Math.sin(0.3 * t);
     if (plant && t >= 112 && t < 113) v = 20; // 72 km/h in a 60 km/h pit lane
@@ -55,13 +56,13 @@ function makeSession(plant: boolean): { series: SessionSeries; laps: LapSpan[] }
     }
     if (plant && t >= 75 && t < 75.1) fork[i] = 0.119; // 1 mm short of a 120 mm stroke
     if (plant && t >= 82 && t < 104.5) lean[i] = 12.3; // lean sensor stuck for 22.5 s
-    if (i > 0) dist += v * (t - timeS[i - 1]);
+    if (i > 0) dist += v * (t - at(timeS, i - 1));
     const isFix = Math.round(t * 20) % 2 === 0;
     const dropout = plant && t > 95 && t < 97;
     if (isFix && !dropout) {
       lat[i] = 10 + dist / M_PER_DEG_LAT;
       lon[i] = 20;
-      if (plant && Math.abs(t - 100) < 1e-6) lat[i] += 50 / M_PER_DEG_LAT; // 50 m jump
+      if (plant && Math.abs(t - 100) < 1e-6) lat[i]! += 50 / M_PER_DEG_LAT; // 50 m jump
     }
   }
   const laps: LapSpan[] = [
@@ -105,7 +106,7 @@ describe("runFindings on a session with one planted event of each kind", () => {
   ])("%s on lap %d from %d s to %d s", (kind, lap, start, end, measured, unit, caution) => {
     const mine = findings.filter((f) => f.kind === kind);
     expect(mine).toHaveLength(1); // consecutive samples merged into one finding
-    const f = mine[0];
+    const f = at(mine, 0);
     expect(f.lapNumber).toBe(lap);
     expect(f.startTimeS).toBeCloseTo(start, 6);
     expect(f.endTimeS).toBeCloseTo(end, 6);
@@ -139,8 +140,8 @@ describe("thresholds", () => {
     const pit = f.filter((x) => x.kind === "pit_overspeed");
     // 14 ± 0.5 m/s = 50–52 km/h everywhere in the lane is above 40 km/h: one long finding.
     expect(pit).toHaveLength(1);
-    expect(pit[0].startTimeS).toBeCloseTo(110, 6);
-    expect(pit[0].thresholdValue).toBeCloseTo(40 / 3.6, 9);
+    expect(at(pit, 0).startTimeS).toBeCloseTo(110, 6);
+    expect(at(pit, 0).thresholdValue).toBeCloseTo(40 / 3.6, 9);
   });
   it("the bike's rev ceiling overrides the default; team settings override defaults", () => {
     expect(runFindings(series, { ...ctxFor(laps), bike: { ...ctxFor(laps).bike, revCeilingRpm: 14500 } }).some((x) => x.kind === "rev_ceiling")).toBe(false);

@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { runFindings } from "@/lib/findings/run-findings";
 import type { FindingsContext, LapSpan } from "@/lib/findings/types";
 import { readSampleCsv } from "./read-sample-csv";
+import { at } from "../../fixtures/at";
 
 /**
  * The sample-log generator's three-lap file with planted events and their ground truth
@@ -51,7 +52,7 @@ describe("runFindings on the generated three-lap sample log", () => {
   it.each(truth.events.map((e) => [e.kind, e.lap, e.startS, e] as const))("finds %s on lap %d at %d s (±50 ms)", (kind, lap, startS, e) => {
     const mine = findings.filter((f) => f.kind === kind && f.lapNumber === lap && Math.abs(f.startTimeS - startS) <= 0.05);
     expect(mine).toHaveLength(1);
-    expect(Math.abs(mine[0].endTimeS - e.endS)).toBeLessThanOrEqual(0.05);
+    expect(Math.abs(at(mine, 0).endTimeS - e.endS)).toBeLessThanOrEqual(0.05);
   });
 
   it("finds nothing that was not planted (clean laps stay clean)", () => {

@@ -4,6 +4,7 @@ import { overallRatios } from "@/lib/gear/overall-ratios";
 import { gearFromRatios } from "@/lib/gear/gear-from-ratios";
 import { timeInGear } from "@/lib/gear/time-in-gear";
 import { shiftEvents } from "@/lib/gear/shift-events";
+import { at } from "../../fixtures/at";
 
 describe("nominalTyreCircumferenceM — D = 25.4·rim + 2·width·aspect/100 (ISO 5751 / ETRTO practice, from memory)", () => {
   it.each([
@@ -71,20 +72,20 @@ describe("timeInGear and shiftEvents", () => {
     th.push(throttle);
     time += 0.01;
   };
-  for (let i = 0; i < 100; i++) push(10000 + 20 * i, speedAt(10000 + 20 * i, ov[2]), 100);
-  const vShift = speedAt(12000, ov[2]);
-  for (let i = 0; i < 100; i++) push((vShift / 2.0131) * 60 * ov[3], vShift, 100);
+  for (let i = 0; i < 100; i++) push(10000 + 20 * i, speedAt(10000 + 20 * i, at(ov, 2)), 100);
+  const vShift = speedAt(12000, at(ov, 2));
+  for (let i = 0; i < 100; i++) push((vShift / 2.0131) * 60 * at(ov, 3), vShift, 100);
   for (let i = 0; i < 10; i++) push(4000, vShift, 0); // clutch in: ratio matches nothing
-  for (let i = 0; i < 100; i++) push((vShift / 2.0131) * 60 * ov[2], vShift, 0);
+  for (let i = 0; i < 100; i++) push((vShift / 2.0131) * 60 * at(ov, 2), vShift, 0);
   const timeS = Float64Array.from(t);
   const gear = gearFromRatios(Float32Array.from(rpm), Float32Array.from(v), BIKE);
 
   it("time in each gear", () => {
     const tig = timeInGear(gear, timeS);
     // 100 samples at 0.01 s = 1.00 s in 4th; 3rd: 100 + 99 intervals (the last sample has no next).
-    expect(tig[4].timeS).toBeCloseTo(1.0, 9);
-    expect(tig[3].timeS).toBeCloseTo(1.99, 9);
-    expect(tig[0].timeS).toBeCloseTo(0.1, 9);
+    expect(at(tig, 4).timeS).toBeCloseTo(1.0, 9);
+    expect(at(tig, 3).timeS).toBeCloseTo(1.99, 9);
+    expect(at(tig, 0).timeS).toBeCloseTo(0.1, 9);
     expect(tig.reduce((a, x) => a + x.pct, 0)).toBeCloseTo(100, 9);
   });
 
@@ -93,8 +94,8 @@ describe("timeInGear and shiftEvents", () => {
     expect(ev).toHaveLength(2);
     expect(ev[0]).toMatchObject({ fromGear: 3, toGear: 4, direction: "up", clutchless: true, index: 100 });
     // rpm drop at the shift: 12 000 × (ratio 4th / ratio 3rd) = 12 000 × 1.42/1.65 = 10 327 rpm
-    expect(ev[0].rpmAfter).toBeCloseTo(12000 * (1.42 / 1.65), 0);
+    expect(at(ev, 0).rpmAfter).toBeCloseTo(12000 * (1.42 / 1.65), 0);
     expect(ev[1]).toMatchObject({ fromGear: 4, toGear: 3, direction: "down", clutchless: false });
-    expect(ev[1].shiftTimeS).toBeCloseTo(0.11, 9);
+    expect(at(ev, 1).shiftTimeS).toBeCloseTo(0.11, 9);
   });
 });

@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { gearFromRatios } from "@/lib/gear/gear-from-ratios";
 import { BIKE } from "@/sample-logs/bike-model";
 import { readSampleCsv } from "../findings/read-sample-csv";
+import { at } from "../../fixtures/at";
 
 /** Gear from rpm and rear wheel speed against the gear the sample-log generator logged (invented bike). */
 describe("gearFromRatios on the generated three-lap sample log", () => {
@@ -20,7 +21,7 @@ describe("gearFromRatios on the generated three-lap sample log", () => {
     let agree = 0;
     let wrong = 0;
     for (let i = 0; i < gear.length; i++) {
-      if (!(logged[i] > 0 && s.channels.speed_rear![i] > 2)) continue;
+      if (!(at(logged, i) > 0 && at(s.channels.speed_rear!, i) > 2)) continue;
       driving++;
       if (gear[i] === logged[i]) agree++;
       else if (gear[i] !== 0) wrong++;

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { haversineM } from "@/lib/geo/haversine-m";
 import { pointInPolygon } from "@/lib/geo/point-in-polygon";
 import { runFindings } from "@/lib/findings/run-findings";
+import { at } from "../../fixtures/at";
 
 describe("haversineM", () => {
   it("Aviation Formulary (Ed Williams) worked example: LAX 33°57′N 118°24′W → JFK 40°38′N 73°47′W = 0.623585 rad", () => {
@@ -40,7 +41,7 @@ describe("pointInPolygon and a pit lane given as a GPS polygon", () => {
     for (let i = 0; i < n; i++) {
       timeS[i] = i / 10;
       if (i % 2 === 0) {
-        lat[i] = 9.9995 + (25 * timeS[i]) / mPerDeg;
+        lat[i] = 9.9995 + (25 * at(timeS, i)) / mPerDeg;
         lon[i] = 20.0001;
       }
     }
@@ -48,8 +49,8 @@ describe("pointInPolygon and a pit lane given as a GPS polygon", () => {
     expect(f).toHaveLength(1);
     // Enters at 55.6 m south of the box / 25 m/s = 2.22 s, leaves after 111.2 m more = 6.67 s;
     // fixes every 0.2 s, so the first fix inside is at 2.4 s and the last at 6.6 s (held to 6.7).
-    expect(f[0].startTimeS).toBeCloseTo(2.4, 6);
-    expect(f[0].endTimeS).toBeCloseTo(6.7, 6);
-    expect(f[0].measuredValue).toBe(25);
+    expect(at(f, 0).startTimeS).toBeCloseTo(2.4, 6);
+    expect(at(f, 0).endTimeS).toBeCloseTo(6.7, 6);
+    expect(at(f, 0).measuredValue).toBe(25);
   });
 });

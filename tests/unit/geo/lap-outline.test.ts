@@ -7,6 +7,7 @@ import { describe, it, expect } from "vitest";
 import { lapOutline } from "@/lib/geo/lap-outline";
 import { pathDistances } from "@/lib/geo/path-distances";
 import { CIRCUIT } from "@/sample-logs/circuit";
+import { at } from "../../fixtures/at";
 
 describe("lapOutline", () => {
   it("gives one closed lap of the demo circuit from three laps", () => {
@@ -17,7 +18,7 @@ describe("lapOutline", () => {
     expect(outline[0]).toEqual(outline[outline.length - 1]);
     const d = pathDistances(outline);
     // The circuit's length by construction; the loop closes within one 5 m step.
-    expect(Math.abs(d[d.length - 1] - CIRCUIT.lengthM)).toBeLessThan(10);
+    expect(Math.abs(at(d, d.length - 1) - CIRCUIT.lengthM)).toBeLessThan(10);
   });
 
   it("gives null for a path that never comes back", () => {

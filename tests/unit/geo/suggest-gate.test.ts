@@ -13,6 +13,7 @@ import { lapOutline } from "@/lib/geo/lap-outline";
 import { detectLaps } from "@/lib/laps/detect-laps";
 import { CIRCUIT, TRACK_LENGTH_M, toLocal, trackPointAt } from "@/sample-logs/circuit";
 import { generateSession } from "@/sample-logs/generate-session";
+import { at } from "../../fixtures/at";
 
 const session = generateSession({ seed: 7, flyingLaps: 3, sampleRateHz: 50, gpsRateHz: 10 });
 const lat = session.channels.find((c) => c.role === "gps_lat")!.data;
@@ -44,12 +45,12 @@ describe("longestStraightGate", () => {
     expect(flying.length).toBe(truthFlying.length);
     // A line 70 m before the true one shifts each lap's ends by the time over those 70 m on two
     // consecutive laps; the generator's laps differ little there (ground truth: its lap times).
-    flying.forEach((l, k) => expect(Math.abs(l.lapTimeMs - truthFlying[k].lapTimeMs)).toBeLessThan(100));
+    flying.forEach((l, k) => expect(Math.abs(l.lapTimeMs - at(truthFlying, k).lapTimeMs)).toBeLessThan(100));
   });
 
   it("works on sparse points too: every third outline point (~9 m apart, as 10 Hz fixes at speed)", () => {
     const sparse = lapOutline(lat, lon)!.filter((_, i) => i % 3 === 0);
-    sparse.push(sparse[0]);
+    sparse.push(at(sparse, 0));
     const g = longestStraightGate(sparse)!;
     expect(g).not.toBeNull();
     expect(offTrackPoint(g.at, TRACK_LENGTH_M - 70)).toBeLessThan(30);
@@ -60,7 +61,7 @@ describe("longestStraightGate", () => {
       const a = (2 * Math.PI * i) / 400;
       return [46 + (150 * Math.sin(a)) / 111_160, -35 + (150 * Math.cos(a)) / 77_400] as [number, number];
     });
-    pts.push(pts[0]);
+    pts.push(at(pts, 0));
     expect(longestStraightGate(pts)).toBeNull();
   });
 });
@@ -70,7 +71,7 @@ describe("beaconGate", () => {
     // A beacon beside the line pulses for 0.1 s each time a lap starts (the generator's truth).
     const beacon = new Float32Array(session.timeS.length);
     for (const lap of session.truth.laps.slice(1)) {
-      for (let i = 0; i < session.timeS.length; i++) if (session.timeS[i] >= lap.startS && session.timeS[i] < lap.startS + 0.1) beacon[i] = 1;
+      for (let i = 0; i < session.timeS.length; i++) if (at(session.timeS, i) >= lap.startS && at(session.timeS, i) < lap.startS + 0.1) beacon[i] = 1;
     }
     const g = beaconGate(session.timeS, beacon, lat, lon)!;
     expect(g).not.toBeNull();

@@ -1,6 +1,7 @@
 import { getPreciseDistance } from "geolib";
 import { describe, expect, it } from "vitest";
 import { toLocalMetres } from "@/lib/geo/to-local-metres";
+import { at } from "../../fixtures/at";
 
 // Invented origins (open sea / no circuit); three latitudes including a high one.
 const ORIGINS = [
@@ -29,9 +30,9 @@ describe("toLocalMetres", () => {
         const j = (i + pts.length / 2) % pts.length; // opposite point: chords through the origin area
         const k = (i + 1) % pts.length; // neighbour: a chord away from the origin
         for (const m of [j, k]) {
-          const a = p.toLatLon(pts[i].x, pts[i].y);
-          const b = p.toLatLon(pts[m].x, pts[m].y);
-          const local = Math.hypot(pts[i].x - pts[m].x, pts[i].y - pts[m].y);
+          const a = p.toLatLon(at(pts, i).x, at(pts, i).y);
+          const b = p.toLatLon(at(pts, m).x, at(pts, m).y);
+          const local = Math.hypot(at(pts, i).x - at(pts, m).x, at(pts, i).y - at(pts, m).y);
           const ref = getPreciseDistance({ latitude: a.lat, longitude: a.lon }, { latitude: b.lat, longitude: b.lon }, 0.0001);
           worst = Math.max(worst, Math.abs(local - ref) / ref);
         }
@@ -41,9 +42,9 @@ describe("toLocalMetres", () => {
   }
 
   it("is exact at the origin and round-trips through toLatLon", () => {
-    const p = toLocalMetres(ORIGINS[0]);
-    expect(p.xM(ORIGINS[0].lon)).toBe(0);
-    expect(p.yM(ORIGINS[0].lat)).toBe(0);
+    const p = toLocalMetres(at(ORIGINS, 0));
+    expect(p.xM(at(ORIGINS, 0).lon)).toBe(0);
+    expect(p.yM(at(ORIGINS, 0).lat)).toBe(0);
     const ll = p.toLatLon(1234.5, -987.25);
     expect(p.xM(ll.lon)).toBeCloseTo(1234.5, 9);
     expect(p.yM(ll.lat)).toBeCloseTo(-987.25, 9);

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { headerSignature, readCsvHeader, splitNameAndUnit, suggestMapping } from "@/lib/ingest";
+import { at } from "../../fixtures/at";
 
 describe("readCsvHeader", () => {
   it("reads metadata lines, the header, names and units", () => {
@@ -71,12 +72,12 @@ describe("suggestMapping", () => {
     ["Mystery [zorks]", "other"],
   ])("%s → %s", (header, role) => {
     const h = readCsvHeader(`Other column,${header}\n1,2\n`, true);
-    expect(suggestMapping(h.columns).columns[1].role).toBe(role);
+    expect(at(suggestMapping(h.columns).columns, 1).role).toBe(role);
   });
 
   it("a unit of the wrong kind keeps the name from deciding: 'Fork [bar]' is not fork travel", () => {
     const h = readCsvHeader("Time [s],Fork [bar]\n0,1\n", true);
-    expect(suggestMapping(h.columns).columns[1].role).toBe("other");
+    expect(at(suggestMapping(h.columns).columns, 1).role).toBe("other");
   });
 
   it("one column per role: the second front wheel speed becomes other", () => {

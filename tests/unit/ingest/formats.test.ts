@@ -4,6 +4,7 @@ import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { KMH_TO_MPS, MPH_TO_MPS, PSI_TO_PA, STANDARD_GRAVITY_MPS2, type ParsedSeries } from "@/lib/ingest";
 import { importFile } from "./import-file";
+import { at } from "../../fixtures/at";
 
 const DIR = join(__dirname, "../../fixtures/formats");
 const load = (f: string) => importFile(join(DIR, f));
@@ -93,7 +94,7 @@ describe("good CSV variants parse to the same SI series", () => {
   it("a trailing delimiter on every line is an empty extra column, not an error", async () => {
     const s = await load("trailing-delimiter.csv");
     expect(s.channels.map((c) => c.name)).toEqual(["Throttle"]);
-    expect([...s.channels[0].values]).toEqual([1, 2]);
+    expect([...at(s.channels, 0).values]).toEqual([1, 2]);
   });
 
   it("quoted header names may contain the delimiter", async () => {

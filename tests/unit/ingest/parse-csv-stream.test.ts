@@ -2,6 +2,7 @@ import { Readable } from "node:stream";
 import { describe, expect, it } from "vitest";
 import { LIMITS, parseCsvStream, parseCsvText, readCsvHeader, suggestMapping, type IngestProgress, type Mapping } from "@/lib/ingest";
 import { ingestErrorOf } from "./import-file";
+import { at } from "../../fixtures/at";
 
 const mappingFor = (text: string): Mapping => {
   const h = readCsvHeader(text, true);
@@ -39,7 +40,7 @@ describe("parseCsvStream", () => {
     const seen: IngestProgress[] = [];
     await parseCsvStream(pieces(bytes, 512), mappingFor(text), LIMITS, (p) => seen.push({ ...p }));
     expect(seen.length).toBeGreaterThan(1);
-    for (let i = 1; i < seen.length; i++) expect(seen[i].bytesRead).toBeGreaterThanOrEqual(seen[i - 1].bytesRead);
+    for (let i = 1; i < seen.length; i++) expect(at(seen, i).bytesRead).toBeGreaterThanOrEqual(at(seen, i - 1).bytesRead);
     expect(seen.at(-1)).toEqual({ bytesRead: bytes.length, rows: 300 });
   });
 
@@ -47,17 +48,17 @@ describe("parseCsvStream", () => {
     // A fork potentiometer logged in volts: 0 V = 0 mm, 5 V = 150 mm → scale 30 mm/V.
     const csv = "Time [s],Fork pot [V]\n0,0\n0.1,2.5\n0.2,5\n";
     const m = mappingFor(csv);
-    m.columns[1] = { ...m.columns[1], role: "fork_travel", unit: "mm", scale: 30, offset: 0 };
+    m.columns[1] = { ...at(m.columns, 1), role: "fork_travel", unit: "mm", scale: 30, offset: 0 };
     const s = await parseCsvText(csv, m);
-    expect([...s.channels[0].values]).toEqual([0, 0.075, 0.15].map(Math.fround));
+    expect([...at(s.channels, 0).values]).toEqual([0, 0.075, 0.15].map(Math.fround));
   });
 
   it("min, max and sampleCount skip empty cells; a channel with no samples has NaN min/max", async () => {
     const csv = "Time [s],Throttle [%],Gear\n0,,\n0.1,40,\n0.2,,\n0.3,-2,\n";
     const s = await parseCsvText(csv, mappingFor(csv));
     expect(s.channels[0]).toMatchObject({ sampleCount: 2, min: -2, max: 40 });
-    expect(s.channels[1].sampleCount).toBe(0);
-    expect(s.channels[1].min).toBeNaN();
+    expect(at(s.channels, 1).sampleCount).toBe(0);
+    expect(at(s.channels, 1).min).toBeNaN();
   });
 
   it("grows its arrays past the initial capacity and trims them to the row count", async () => {
@@ -68,7 +69,7 @@ describe("parseCsvStream", () => {
     expect(s.timeS.length).toBe(rows);
     expect(s.timeS.buffer.byteLength).toBe(rows * 8);
     expect(s.timeS[rows - 1]).toBeCloseTo((rows - 1) / 100, 9);
-    expect(s.channels[0].values.length).toBe(rows);
+    expect(at(s.channels, 0).values.length).toBe(rows);
   });
 
   it("a Latin-1 byte after the first 64 KiB is found while streaming, with its byte offset and line", async () => {
@@ -95,8 +96,8 @@ describe("parseCsvStream", () => {
   it("two columns mapped to one role is refused", async () => {
     const csv = "Time [s],A [bar],B [bar]\n0,1,2\n";
     const m = mappingFor(csv);
-    m.columns[1] = { ...m.columns[1], role: "brake_front" };
-    m.columns[2] = { ...m.columns[2], role: "brake_front" };
+    m.columns[1] = { ...at(m.columns, 1), role: "brake_front" };
+    m.columns[2] = { ...at(m.columns, 2), role: "brake_front" };
     const err = await ingestErrorOf(parseCsvText(csv, m));
     expect(err.code).toBe("MAPPING_MISMATCH");
     expect(err.message).toMatch(/'A' and 'B' are both mapped to brake front/);
@@ -105,7 +106,7 @@ describe("parseCsvStream", () => {
   it("'ignore' leaves a column out", async () => {
     const csv = "Time [s],Throttle [%],Junk\n0,1,x\n0.1,2,y\n";
     const m = mappingFor(csv);
-    m.columns[2] = { ...m.columns[2], role: "ignore" };
+    m.columns[2] = { ...at(m.columns, 2), role: "ignore" };
     const s = await parseCsvText(csv, m);
     expect(s.channels.map((c) => c.name)).toEqual(["Throttle"]);
   });

@@ -3,6 +3,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { readCsvHeader, suggestMapping, type ParsedSeries } from "@/lib/ingest";
 import { importFile } from "./import-file";
+import { at } from "../../fixtures/at";
 
 /**
  * The generated sample logs (sample-logs/files, written by `npm run samples`) parsed end to end and
@@ -27,7 +28,7 @@ describe("sample logs from sample-logs/files", () => {
     const head = readFileSync(join(DIR, `${base}.csv`)).subarray(0, 65536).toString("utf8");
     const header = readCsvHeader(head, false);
     const mapping = suggestMapping(header.columns, header.sampleRows);
-    const byHeader = new Map(header.columns.map((c) => [c.header, mapping.columns[c.index].role]));
+    const byHeader = new Map(header.columns.map((c) => [c.header, at(mapping.columns, c.index).role]));
     for (const c of truth.channels) expect(byHeader.get(c.header), c.header).toBe(c.role);
     expect(mapping.timeFormat).toBe("seconds");
   });
@@ -36,7 +37,7 @@ describe("sample logs from sample-logs/files", () => {
     const truth = truthOf(`${base}.truth.json`);
     const s = await importFile(join(DIR, `${base}.csv`));
     expect(s.rows).toBe(truth.samples);
-    expect(s.timeS[1] - s.timeS[0]).toBeCloseTo(1 / truth.sampleRateHz, 9);
+    expect(at(s.timeS, 1) - at(s.timeS, 0)).toBeCloseTo(1 / truth.sampleRateHz, 9);
     for (const c of truth.channels) expect(ch(s, c.role).unit, c.header).toBe(c.siUnit);
     // GPS columns are sparse: one fix every sampleRate/gpsRate rows.
     expect(ch(s, "gps_lat").sampleCount).toBeCloseTo((s.rows * truth.gpsRateHz) / truth.sampleRateHz, -1);
@@ -61,9 +62,9 @@ describe("sample logs from sample-logs/files", () => {
     let worstLat = 0;
     let speedDiff = 0;
     for (let i = 0; i < gpx.rows; i++) {
-      expect(nmea.timeS[i]).toBeCloseTo(gpx.timeS[i], 6);
-      worstLat = Math.max(worstLat, Math.abs(ch(gpx, "gps_lat").values[i] - ch(nmea, "gps_lat").values[i]), Math.abs(csvLat[i] - ch(gpx, "gps_lat").values[i]));
-      speedDiff += Math.abs(ch(gpx, "gps_speed").values[i] - ch(nmea, "gps_speed").values[i]);
+      expect(at(nmea.timeS, i)).toBeCloseTo(at(gpx.timeS, i), 6);
+      worstLat = Math.max(worstLat, Math.abs(at(ch(gpx, "gps_lat").values, i) - at(ch(nmea, "gps_lat").values, i)), Math.abs(at(csvLat, i) - at(ch(gpx, "gps_lat").values, i)));
+      speedDiff += Math.abs(at(ch(gpx, "gps_speed").values, i) - at(ch(nmea, "gps_speed").values, i));
     }
     // Float32 spacing at 46° is 3.8e-6°; the files print 7 decimals (GPX/CSV) and 6 decimals of minutes (NMEA).
     expect(worstLat).toBeLessThan(1e-5);

@@ -12,6 +12,7 @@ import { describe, expect, it } from "vitest";
 import { readCsvHeader, suggestMapping } from "@/lib/ingest";
 import { lookupUnit } from "@/lib/ingest/units";
 import type { ChannelRole } from "@/lib/channels/roles";
+import { at } from "../../fixtures/at";
 
 /** Sample values per kind, 8 rows, standing in the pit lane or rolling out (as a log starts). */
 type Kind =
@@ -222,8 +223,8 @@ const results: Result[] = DIALECTS.flatMap((d) => {
   const h = readCsvHeader(csvOf(d), true);
   const s = suggestMapping(h.columns, h.sampleRows);
   return d.columns.map(([header, expected], i) => {
-    const unit = h.columns[i].unit;
-    return { dialect: d.name, header, expected, got: s.columns[i].role, reason: s.columns[i].reason, unitClear: expected !== "other" && !!unit && !!lookupUnit(unit) };
+    const unit = at(h.columns, i).unit;
+    return { dialect: d.name, header, expected, got: at(s.columns, i).role, reason: at(s.columns, i).reason, unitClear: expected !== "other" && !!unit && !!lookupUnit(unit) };
   });
 });
 const right = results.filter((r) => r.got === r.expected).length;
@@ -273,7 +274,7 @@ describe("mapping suggestions: what one clue alone decides", () => {
   ])("%j with rows %j: column %s → %s (%s)", (cells, rows, col, role) => {
     const text = [cells.join(","), ...rows.map((r) => r.join(","))].join("\n") + "\n";
     const h = readCsvHeader(text, true);
-    expect(suggestMapping(h.columns, h.sampleRows).columns[col].role).toBe(role);
+    expect(at(suggestMapping(h.columns, h.sampleRows).columns, col).role).toBe(role);
   });
 });
 

@@ -3,6 +3,7 @@ import { bestSectorLap } from "@/lib/laps/best-sector-lap";
 import { detectLapsFromBeacon } from "@/lib/laps/detect-laps-from-beacon";
 import { lapStats } from "@/lib/laps/lap-stats";
 import type { Lap } from "@/lib/laps/types";
+import { at } from "../../fixtures/at";
 
 describe("detectLapsFromBeacon", () => {
   it("times each rising edge at its first high sample (100 Hz → within 10 ms) and drops a double pulse", () => {
@@ -24,10 +25,10 @@ describe("detectLapsFromBeacon", () => {
     const edges = [12.3456, 95.1234, 178.9, 262.05];
     for (let k = 1; k <= 3; k++) {
       // Edge quantised up to the next sample: error in [0, 10) ms at each end.
-      expect(Math.abs(laps[k].lapTimeMs - (edges[k] - edges[k - 1]) * 1000)).toBeLessThan(10);
-      expect(laps[k].sectorTimesMs).toEqual([laps[k].lapTimeMs]);
+      expect(Math.abs(at(laps, k).lapTimeMs - (at(edges, k) - at(edges, k - 1)) * 1000)).toBeLessThan(10);
+      expect(at(laps, k).sectorTimesMs).toEqual([at(laps, k).lapTimeMs]);
     }
-    expect(laps[0].sectorTimesMs).toEqual([null]);
+    expect(at(laps, 0).sectorTimesMs).toEqual([null]);
   });
 });
 

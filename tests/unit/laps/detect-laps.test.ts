@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { detectLaps } from "@/lib/laps/detect-laps";
 import { LOOP_M, R, TRACK, buildRoute, line, loop, sampleSeries, truthCrossings } from "./synthetic-session";
+import { at } from "../../fixtures/at";
 
 const SPEEDS = [40, 41.5, 39, 42, 40.5]; // m/s per lap piece
 const PIT_PASS = 2; // the third lap piece dives through the pit lane
@@ -26,21 +27,21 @@ describe("detectLaps on a synthetic oval session", () => {
       // out-lap + (sf.length − 1) complete laps + in-lap
       expect(laps).toHaveLength(sf.length + 1);
       expect(laps[0]).toMatchObject({ number: 1, outLap: true, complete: false, inLap: false });
-      expect(laps[0].endTimeS).toBeCloseTo(sf[0], 3);
+      expect(at(laps, 0).endTimeS).toBeCloseTo(at(sf, 0), 3);
       for (let k = 1; k < sf.length; k++) {
-        const lap = laps[k];
+        const lap = at(laps, k);
         expect(lap.complete).toBe(true);
-        expect(Math.abs(lap.startTimeS - sf[k - 1])).toBeLessThan(0.0005);
-        expect(Math.abs(lap.endTimeS - sf[k])).toBeLessThan(0.0005);
-        expect(Math.abs(lap.lapTimeMs - (sf[k] - sf[k - 1]) * 1000)).toBeLessThanOrEqual(1);
-        const b1 = s1.find((t) => t > sf[k - 1] && t < sf[k]);
-        const b2 = s2.find((t) => t > sf[k - 1] && t < sf[k]);
+        expect(Math.abs(lap.startTimeS - at(sf, k - 1))).toBeLessThan(0.0005);
+        expect(Math.abs(lap.endTimeS - at(sf, k))).toBeLessThan(0.0005);
+        expect(Math.abs(lap.lapTimeMs - (at(sf, k) - at(sf, k - 1)) * 1000)).toBeLessThanOrEqual(1);
+        const b1 = s1.find((t) => t > at(sf, k - 1) && t < at(sf, k));
+        const b2 = s2.find((t) => t > at(sf, k - 1) && t < at(sf, k));
         const sumMs = lap.sectorTimesMs.reduce<number>((a, x) => a + (x ?? NaN), 0);
         expect(sumMs).toBe(lap.lapTimeMs);
         if (b1 !== undefined && b2 !== undefined) {
-          expect(Math.abs(lap.sectorTimesMs[0]! - (b1 - sf[k - 1]) * 1000)).toBeLessThanOrEqual(1);
+          expect(Math.abs(lap.sectorTimesMs[0]! - (b1 - at(sf, k - 1)) * 1000)).toBeLessThanOrEqual(1);
           expect(Math.abs(lap.sectorTimesMs[1]! - (b2 - b1) * 1000)).toBeLessThanOrEqual(1);
-          expect(Math.abs(lap.sectorTimesMs[2]! - (sf[k] - b2) * 1000)).toBeLessThanOrEqual(1);
+          expect(Math.abs(lap.sectorTimesMs[2]! - (at(sf, k) - b2) * 1000)).toBeLessThanOrEqual(1);
         } else {
           // The pit-pass lap bypasses sector 2's gate on the main straight.
           expect(lap.pitPass).toBe(true);
@@ -50,8 +51,8 @@ describe("detectLaps on a synthetic oval session", () => {
       // Laps: out, lap1, lap2, pit pass happens in the lap that began after lap piece 2's line… see route.
       expect(flags.filter((f) => f === "P")).toHaveLength(1);
       expect(flags[flags.length - 1]).toBe("I");
-      expect(laps[laps.length - 1].complete).toBe(false);
-      expect(laps[laps.length - 1].sectorTimesMs[2]).toBeNull();
+      expect(at(laps, laps.length - 1).complete).toBe(false);
+      expect(at(laps, laps.length - 1).sectorTimesMs[2]).toBeNull();
     });
   }
 
@@ -61,7 +62,7 @@ describe("detectLaps on a synthetic oval session", () => {
     const s = sampleSeries(route, 100, 10);
     const f32 = { timeS: s.timeS, channels: { gps_lat: Float32Array.from(s.channels.gps_lat), gps_lon: Float32Array.from(s.channels.gps_lon) } };
     const laps = detectLaps(f32, TRACK);
-    for (let k = 1; k < sf.length; k++) expect(Math.abs(laps[k].endTimeS - sf[k])).toBeLessThan(0.005);
+    for (let k = 1; k < sf.length; k++) expect(Math.abs(at(laps, k).endTimeS - at(sf, k))).toBeLessThan(0.005);
   });
 
   it("a second line crossing moments later (bike wheeled back and forth) is not a new lap", () => {
@@ -70,7 +71,7 @@ describe("detectLaps on a synthetic oval session", () => {
     // a double count under the minimum lap time), then two laps and in.
     const base = buildRoute([40, 40]);
     const route2 = [
-      base[0], base[1],
+      at(base, 0), at(base, 1),
       loop(400, LOOP_M + 10, 40),
       line(10, -R, -10, -R, 2),
       line(-10, -R, 10, -R, 2),

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { detectLaps } from "@/lib/laps/detect-laps";
 import { distanceChannel } from "@/lib/laps/distance-channel";
 import { LOOP_M, TRACK, buildRoute, routeS, sampleSeries } from "./synthetic-session";
+import { at } from "../../fixtures/at";
 
 describe("distanceChannel", () => {
   const route = buildRoute([40, 41, 39.5]);
@@ -14,17 +15,17 @@ describe("distanceChannel", () => {
     const d = distanceChannel(s, laps);
     expect(d.source).toBe("speed_front");
     for (let k = 0; k < laps.length; k++) {
-      if (!laps[k].complete) continue;
-      expect(Math.abs(d.lapLengthM[k] - LOOP_M)).toBeLessThan(0.1);
+      if (!at(laps, k).complete) continue;
+      expect(Math.abs(at(d.lapLengthM, k) - LOOP_M)).toBeLessThan(0.1);
       expect(d.lapScale[k]).toBeCloseTo(1 / 1.03, 4);
     }
     // Continuous, non-decreasing, and matching the analytic arc length inside a flying lap.
-    for (let i = 1; i < s.timeS.length; i++) expect(d.distanceM[i]).toBeGreaterThanOrEqual(d.distanceM[i - 1]);
+    for (let i = 1; i < s.timeS.length; i++) expect(at(d.distanceM, i)).toBeGreaterThanOrEqual(at(d.distanceM, i - 1));
     const k = laps.findIndex((l) => l.complete);
-    const mid = (laps[k].startTimeS + laps[k].endTimeS) / 2;
-    const i = Math.round((mid - s.timeS[0]) * 100);
-    const truthLapDist = routeS(route, s.timeS[i]) - routeS(route, laps[k].startTimeS);
-    expect(Math.abs(d.distanceM[i] - d.lapStartDistanceM[k] - truthLapDist)).toBeLessThan(0.1);
+    const mid = (at(laps, k).startTimeS + at(laps, k).endTimeS) / 2;
+    const i = Math.round((mid - at(s.timeS, 0)) * 100);
+    const truthLapDist = routeS(route, at(s.timeS, i)) - routeS(route, at(laps, k).startTimeS);
+    expect(Math.abs(at(d.distanceM, i) - at(d.lapStartDistanceM, k) - truthLapDist)).toBeLessThan(0.1);
   });
 
   it("falls back to GPS path length without a wheel-speed channel", () => {
@@ -33,7 +34,7 @@ describe("distanceChannel", () => {
     const laps = detectLaps(gpsOnly, TRACK);
     const d = distanceChannel(gpsOnly, laps);
     expect(d.source).toBe("gps");
-    for (let k = 0; k < laps.length; k++) if (laps[k].complete) expect(Math.abs(d.lapLengthM[k] - LOOP_M)).toBeLessThan(0.1);
+    for (let k = 0; k < laps.length; k++) if (at(laps, k).complete) expect(Math.abs(at(d.lapLengthM, k) - LOOP_M)).toBeLessThan(0.1);
     expect(d.distanceM[d.distanceM.length - 1]).toBeGreaterThan(3 * LOOP_M);
   });
 });

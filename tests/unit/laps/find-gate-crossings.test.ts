@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { findGateCrossings } from "@/lib/laps/find-gate-crossings";
 import { GATES, proj } from "./synthetic-session";
+import { at } from "../../fixtures/at";
 
 /** Fixes along y = −100 (the synthetic main straight) at the given x positions and times. */
 function fixesAt(xs: number[], ts: number[]) {
@@ -19,10 +20,10 @@ describe("findGateCrossings", () => {
     const c = findGateCrossings(fixesAt([-2.0, 3.556], [10, 10.1]), GATES.startFinish);
     expect(c).toHaveLength(1);
     // 0.1 · 2/5.556 = 0.035997… s, which rounds to 0.036 s.
-    expect(c[0].timeS - 10).toBeCloseTo(0.036, 4);
-    expect(Math.abs(c[0].timeS - 10 - (0.1 * 2) / 5.556)).toBeLessThan(1e-9);
-    expect(c[0].direction).toBe(1);
-    expect(c[0].fixIndex).toBe(0);
+    expect(at(c, 0).timeS - 10).toBeCloseTo(0.036, 4);
+    expect(Math.abs(at(c, 0).timeS - 10 - (0.1 * 2) / 5.556)).toBeLessThan(1e-9);
+    expect(at(c, 0).direction).toBe(1);
+    expect(at(c, 0).fixIndex).toBe(0);
   });
 
   it("ignores a crossing backwards unless asked for it", () => {
@@ -30,8 +31,8 @@ describe("findGateCrossings", () => {
     expect(findGateCrossings(back, GATES.startFinish)).toHaveLength(0);
     const both = findGateCrossings(back, GATES.startFinish, { direction: "both" });
     expect(both).toHaveLength(1);
-    expect(both[0].direction).toBe(-1);
-    expect(both[0].timeS).toBeCloseTo(0.06, 12); // 3 m of 5 m at constant speed
+    expect(at(both, 0).direction).toBe(-1);
+    expect(at(both, 0).timeS).toBeCloseTo(0.06, 12); // 3 m of 5 m at constant speed
   });
 
   it("without interpolation a 10 Hz crossing at 200 km/h could be up to 100 ms late; with it the error is ~0", () => {
@@ -39,8 +40,8 @@ describe("findGateCrossings", () => {
     const v = 200 / 3.6;
     const ts = [0.93, 1.03];
     const c = findGateCrossings(fixesAt(ts.map((t) => (t - 1) * v), ts), GATES.startFinish);
-    expect(Math.abs(c[0].timeS - 1)).toBeLessThan(1e-9);
-    expect(ts[1] - 1).toBeCloseTo(0.03, 9); // the naive "first fix after" answer is 30 ms late here
+    expect(Math.abs(at(c, 0).timeS - 1)).toBeLessThan(1e-9);
+    expect(at(ts, 1) - 1).toBeCloseTo(0.03, 9); // the naive "first fix after" answer is 30 ms late here
   });
 
   it("does not interpolate across a GPS dropout longer than maxGapS", () => {
@@ -52,7 +53,7 @@ describe("findGateCrossings", () => {
   it("skips NaN fixes and misses a pass beside the gate", () => {
     const f = fixesAt([-3, 0, 3], [0, 0.1, 0.2]);
     f.latDeg[1] = NaN;
-    expect(findGateCrossings(f, GATES.startFinish)[0].timeS).toBeCloseTo(0.1, 9);
+    expect(at(findGateCrossings(f, GATES.startFinish), 0).timeS).toBeCloseTo(0.1, 9);
     // Same pass 40 m north of the track centre: outside the 30 m gate.
     const beside = fixesAt([-3, 3], [0, 0.1]);
     beside.latDeg.forEach((_, i) => (beside.latDeg[i] = proj.toLatLon(0, -60).lat));

@@ -14,6 +14,7 @@ import { runFindings } from "@/lib/findings/run-findings";
 import { trackGatesForAnalysis } from "@/lib/data/tracks";
 import { demoTrackInput } from "@/workers/demo-track";
 import type { Lap, TrackGates } from "@/lib/laps/types";
+import { at as elementAt } from "../../fixtures/at";
 
 function seriesOf(g: GeneratedSession): SessionSeries {
   const channels: Record<string, Float32Array | Float64Array> = {};
@@ -44,8 +45,8 @@ describe("a dead front wheel sensor (reads 0 while GPS says the bike moves)", ()
     const n = good.timeS.length;
     // The GPS path length of the session is within 1 % of the wheel distance (the generator's laps
     // are ~4.2 km with 0.3 m GPS noise); before the fallback it was 0.
-    expect(dDead.distanceM[n - 1] / dGood.distanceM[n - 1]).toBeGreaterThan(0.99);
-    expect(dDead.distanceM[n - 1] / dGood.distanceM[n - 1]).toBeLessThan(1.01);
+    expect(elementAt(dDead.distanceM, n - 1) / elementAt(dGood.distanceM, n - 1)).toBeGreaterThan(0.99);
+    expect(elementAt(dDead.distanceM, n - 1) / elementAt(dGood.distanceM, n - 1)).toBeLessThan(1.01);
 
     const pit = g.truth.pitLane.map((p) => ({ startTimeS: p.fromS, endTimeS: p.toS }));
     const ctx = { laps: g.truth.laps.map((l) => ({ number: l.number, startTimeS: l.startS, endTimeS: l.endS })), track: { pitLaneTimes: pit, pitSpeedLimitMps: g.truth.pitLaneLimitMps } };
@@ -53,7 +54,7 @@ describe("a dead front wheel sensor (reads 0 while GPS says the bike moves)", ()
     const fDead = runFindings(dead, ctx);
     const flat = fDead.filter((f) => f.kind === "sensor_flat" && f.channel === "speed_front");
     expect(flat).toHaveLength(1);
-    expect(flat[0].message).toMatch(/Front wheel speed reads 0 km\/h .* GPS says the bike moved/);
+    expect(elementAt(flat, 0).message).toMatch(/Front wheel speed reads 0 km\/h .* GPS says the bike moved/);
     // No GPS step turns into a "jump" because the front reads 0.
     expect(fDead.filter((f) => f.kind === "gps_jump").length).toBe(fGood.filter((f) => f.kind === "gps_jump").length);
     // Pit overspeed (planted on the in-lap, generator truth) is still found from the rear wheel.
@@ -70,15 +71,15 @@ describe("a GPS gap at the start/finish line", () => {
     const lap2 = g.truth.laps.find((l) => l.number === 2)!;
     const lat = s.channels.gps_lat!;
     const lon = s.channels.gps_lon!;
-    for (let i = 0; i < s.timeS.length; i++) if (Math.abs(s.timeS[i] - lap2.endS) < 2) lat[i] = lon[i] = NaN;
+    for (let i = 0; i < s.timeS.length; i++) if (Math.abs(elementAt(s.timeS, i) - lap2.endS) < 2) lat[i] = lon[i] = NaN;
     const a = analyseSeries(s, { gates }, null);
     const long = a.laps.filter((l) => l.suspect);
     expect(long).toHaveLength(1);
     // Laps 2 and 3 of the truth merged: about their summed time.
     const lap3 = g.truth.laps.find((l) => l.number === 3)!;
-    expect(long[0].lapTimeMs / 1000).toBeCloseTo(lap3.endS - lap2.startS, 0);
-    expect(a.summary.bestLap!.lapTimeMs).toBeLessThan(long[0].lapTimeMs / 1.5);
-    expect(a.summary.bestSectorLap?.sectors.every((x) => x.lapNumber !== long[0].number)).toBe(true);
+    expect(elementAt(long, 0).lapTimeMs / 1000).toBeCloseTo(lap3.endS - lap2.startS, 0);
+    expect(a.summary.bestLap!.lapTimeMs).toBeLessThan(elementAt(long, 0).lapTimeMs / 1.5);
+    expect(a.summary.bestSectorLap?.sectors.every((x) => x.lapNumber !== elementAt(long, 0).number)).toBe(true);
     expect(a.summary.analysisNotes?.join(" ")).toMatch(/missed line crossing/);
   });
 
@@ -129,16 +130,16 @@ describe("a missed pit-exit crossing", () => {
     const lon = Float64Array.from(lons);
     const speed = new Float32Array(n);
     for (let i = 0; i < n; i++) {
-      const a = (((i === 0 ? 0 : 1) * 0 + ((Math.atan2((lat[i] - lat0) * M_PER_DEG, (lon[i] - lon0) * M_PER_DEG * Math.cos((lat0 * Math.PI) / 180)) * 180) / Math.PI)) + 360) % 360;
+      const a = (((i === 0 ? 0 : 1) * 0 + ((Math.atan2((elementAt(lat, i) - lat0) * M_PER_DEG, (elementAt(lon, i) - lon0) * M_PER_DEG * Math.cos((lat0 * Math.PI) / 180)) * 180) / Math.PI)) + 360) % 360;
       speed[i] = a >= 10 && a < 40 ? 15 : 60;
-      if (Math.abs(timeS[i] - exitTime) < 2) lat[i] = lon[i] = NaN;
+      if (Math.abs(elementAt(timeS, i) - exitTime) < 2) lat[i] = lon[i] = NaN;
     }
     const series = { timeS, channels: { gps_lat: lat, gps_lon: lon, speed_front: speed } };
     const gates: TrackGates = { startFinish: gate(180), sectors: [], pitEntry: gate(10), pitExit: gate(40) };
     const ranges = pitLaneTimes(series, gates);
     // Before: entry of lap 1 → exit of lap 2, a whole lap at 216 km/h "in the pit lane".
     expect(ranges.length).toBeGreaterThan(0);
-    expect(ranges[0].endTimeS).toBeLessThan(exitTime + 3);
+    expect(elementAt(ranges, 0).endTimeS).toBeLessThan(exitTime + 3);
     const f = runFindings(series, { track: { pitLaneTimes: ranges, pitSpeedLimitMps: 60 / 3.6 } });
     expect(f.filter((x) => x.kind === "pit_overspeed" && x.measuredValue > 150 / 3.6)).toHaveLength(0);
   });
@@ -155,7 +156,7 @@ describe("GPS sanity", () => {
     const lat = s.channels.gps_lat!;
     const lon = s.channels.gps_lon!;
     let zeroed = 0;
-    for (let i = 0; i < lat.length && zeroed < 5; i++) if (Number.isFinite(lat[i]) && s.timeS[i] > 200) {
+    for (let i = 0; i < lat.length && zeroed < 5; i++) if (Number.isFinite(elementAt(lat, i)) && elementAt(s.timeS, i) > 200) {
       lat[i] = lon[i] = 0;
       zeroed++;
     }
@@ -168,7 +169,7 @@ describe("GPS sanity", () => {
     const s = seriesOf(g);
     const front = s.channels.speed_front!;
     // A wheel circumference entered 20 % too large: the wheel distance reads 20 % long.
-    for (let i = 0; i < front.length; i++) front[i] *= 1.2;
+    for (let i = 0; i < front.length; i++) front[i]! *= 1.2;
     const a = analyseSeries(s, { gates }, null);
     expect(MAX_RESCALE).toBe(0.05);
     const flying = a.laps.filter((l) => l.complete && !l.outLap && !l.inLap);

@@ -12,6 +12,7 @@
 import { toLocalMetres } from "@/lib/geo/to-local-metres";
 import type { Gate } from "@/lib/geo/types";
 import type { TrackGates } from "@/lib/laps/types";
+import { at } from "../../fixtures/at";
 
 export const ORIGIN = { lat: 44.5, lon: -30.0 };
 export const proj = toLocalMetres(ORIGIN);
@@ -108,7 +109,7 @@ export function routePosition(route: Piece[], sRoute: number): [number, number] 
     if (s <= p.lengthM) return p.at(s);
     s -= p.lengthM;
   }
-  const last = route[route.length - 1];
+  const last = at(route, route.length - 1);
   return last.at(last.lengthM);
 }
 
@@ -183,7 +184,7 @@ export function sampleSeries(route: Piece[], clockHz: number, gpsEvery: number, 
     const s = routeS(route, t);
     // Speed of the piece the bike is on at time t.
     let acc = 0;
-    let v = route[route.length - 1].speedMps;
+    let v = at(route, route.length - 1).speedMps;
     for (const p of route) {
       if (s <= acc + p.lengthM) {
         v = p.speedMps;

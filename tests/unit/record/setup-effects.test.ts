@@ -5,6 +5,7 @@
  */
 import { describe, it, expect } from "vitest";
 import { setupEffects, type EffectSession } from "@/lib/record/setup-effects";
+import { at } from "../../fixtures/at";
 
 const s = (id: number, startedAt: string, setup: Record<string, number | string | null> | null, best: number | null, mean: number | null, sectors: number[] | null, bikeId = 1, trackId = 1): EffectSession => ({
   sessionId: id, title: `S${id}`, startedAt, bikeId, trackId, conditions: null, setupVersion: 1, setup, bestLapMs: best, bestThreeMeanMs: mean, bestSectorsMs: sectors,
@@ -23,7 +24,7 @@ describe("setupEffects", () => {
       2,
     );
     expect(out).toHaveLength(1);
-    const e = out[0];
+    const e = at(out, 0);
     expect([e.before.sessionId, e.after.sessionId]).toEqual([1, 2]);
     expect(e.changes).toEqual([{ field: "forkPreloadMm", before: 5, after: 6 }]);
     expect(e.bestLapDeltaMs).toBe(-600);
@@ -38,7 +39,7 @@ describe("setupEffects", () => {
   it("skips sessions without a setup, bike or track, and reports missing figures as null", () => {
     const out = setupEffects([s(1, "2031-01-01", { a: 1 }, null, null, null), s(2, "2031-01-02", null, 90_000, null, null), s(3, "2031-01-03", { a: 2 }, 90_000, null, null)], ["a"]);
     expect(out).toHaveLength(1);
-    expect(out[0].bestLapDeltaMs).toBeNull();
-    expect(out[0].sectors).toEqual([]);
+    expect(at(out, 0).bestLapDeltaMs).toBeNull();
+    expect(at(out, 0).sectors).toEqual([]);
   });
 });

@@ -12,6 +12,7 @@ import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { parseNmeaSentence } from "nmea-simple";
 import { generateSession, RIDERS, type GeneratedSession } from "@/sample-logs/generate-session";
 import { csvChunks, csvHeader, formatNumber, gpsFixIndices, nmeaChecksum, toCsvString, toGpxString, toNmeaString, writeChunks } from "@/sample-logs/write-formats";
+import { at } from "../../fixtures/at";
 
 let s: GeneratedSession;
 let dir: string;
@@ -45,8 +46,9 @@ describe("CSV", () => {
     expect(meta).toContain(`# rider: ${RIDERS.a.name}`);
     expect(meta).toContain(`# started at: ${s.metadata.startedAt}`);
     const [header, ...data] = rows;
+    if (!header) throw new Error("the CSV has no header row");
     expect(header).toEqual(csvHeader(s, "s"));
-    expect(header[0]).toBe("Time [s]");
+    expect(at(header, 0)).toBe("Time [s]");
     expect(header).toContain("Front wheel speed [km/h]");
     expect(header).toContain("Front brake pressure [bar]");
     expect(data).toHaveLength(s.timeS.length);
@@ -58,12 +60,12 @@ describe("CSV", () => {
     const lat = s.channels.find((c) => c.role === "gps_lat")!.data;
     let worstSpeed = 0, worstBrake = 0, emptyCells = 0;
     for (let j = 0; j < data.length; j++) {
-      expect(Number(data[j][0])).toBeCloseTo(s.timeS[j], 3);
-      worstSpeed = Math.max(worstSpeed, Math.abs(Number(data[j][iSpeed]) - speed[j] * 3.6));
-      worstBrake = Math.max(worstBrake, Math.abs(Number(data[j][iBrake]) - brake[j] / 1e5));
+      expect(Number(at(data, j)[0])).toBeCloseTo(at(s.timeS, j), 3);
+      worstSpeed = Math.max(worstSpeed, Math.abs(Number(at(data, j)[iSpeed]) - at(speed, j) * 3.6));
+      worstBrake = Math.max(worstBrake, Math.abs(Number(at(data, j)[iBrake]) - at(brake, j) / 1e5));
       if (Number.isNaN(lat[j])) {
-        if (data[j][iLat] === "") emptyCells++;
-      } else expect(Number(data[j][iLat])).toBeCloseTo(lat[j], 7);
+        if (at(data, j)[iLat] === "") emptyCells++;
+      } else expect(Number(at(data, j)[iLat])).toBeCloseTo(at(lat, j), 7);
     }
     expect(worstSpeed).toBeLessThanOrEqual(0.05 + 1e-6);
     expect(worstBrake).toBeLessThanOrEqual(0.005 + 1e-6);
@@ -80,21 +82,21 @@ describe("CSV", () => {
     expect(tab).toEqual(plain);
     let differing = 0;
     for (let j = 1; j < plain.length; j++) {
-      for (let k = 0; k < plain[j].length; k++) if (comma[j][k].replace(",", ".") !== plain[j][k]) differing++;
+      for (let k = 0; k < at(plain, j).length; k++) if (at(at(comma, j), k).replace(",", ".") !== at(at(plain, j), k)) differing++;
     }
     expect(differing).toBe(0);
-    expect(comma.slice(1).some((r) => r[0].includes(","))).toBe(true);
+    expect(comma.slice(1).some((r) => at(r, 0).includes(","))).toBe(true);
     expect(() => toCsvString(s, { delimiter: ",", decimalComma: true })).toThrow(/';'/);
   });
 
   it("writes time as integer milliseconds or ISO 8601", () => {
     const ms = parseCsv(toCsvString(s, { time: "ms" }), ",").rows;
-    expect(ms[0][0]).toBe("Time [ms]");
-    expect(ms[101][0]).toBe("1000");
+    expect(at(ms, 0)[0]).toBe("Time [ms]");
+    expect(at(ms, 101)[0]).toBe("1000");
     const iso = parseCsv(toCsvString(s, { time: "iso" }), ",").rows;
-    expect(iso[0][0]).toBe("Time");
-    expect(Date.parse(iso[251][0]) - Date.parse(s.metadata.startedAt)).toBe(2500);
-    expect(iso[1][0]).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/);
+    expect(at(iso, 0)[0]).toBe("Time");
+    expect(Date.parse(at(at(iso, 251), 0)) - Date.parse(s.metadata.startedAt)).toBe(2500);
+    expect(at(iso, 1)[0]).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/);
   });
 
   it("streams to a file in chunks with the same bytes as the in-memory text", async () => {
@@ -125,8 +127,8 @@ describe("GPX 1.1", () => {
     const fixes = gpsFixIndices(s);
     expect(pts).toHaveLength(fixes.length);
     const lat = s.channels.find((c) => c.role === "gps_lat")!.data;
-    expect(Number(pts[50].lat)).toBeCloseTo(lat[fixes[50]], 7);
-    for (let k = 1; k < pts.length; k++) expect(Date.parse(pts[k].time) - Date.parse(pts[k - 1].time)).toBe(100);
+    expect(Number(at(pts, 50).lat)).toBeCloseTo(at(lat, at(fixes, 50)), 7);
+    for (let k = 1; k < pts.length; k++) expect(Date.parse(at(pts, k).time) - Date.parse(at(pts, k - 1).time)).toBe(100);
   });
 
   it("a broken document is rejected by the validator (the check can fail)", () => {
@@ -145,15 +147,15 @@ describe("NMEA 0183", () => {
     const spd = s.channels.find((c) => c.role === "gps_speed")!.data;
     for (let k = 0; k < fixes.length; k += 7) {
       // parseNmeaSentence throws on a wrong checksum.
-      const rmc = parseNmeaSentence(lines[2 * k]);
-      const gga = parseNmeaSentence(lines[2 * k + 1]);
+      const rmc = parseNmeaSentence(at(lines, 2 * k));
+      const gga = parseNmeaSentence(at(lines, 2 * k + 1));
       if (rmc.sentenceId !== "RMC" || gga.sentenceId !== "GGA") throw new Error("wrong sentence order");
-      const j = fixes[k];
-      expect(rmc.latitude).toBeCloseTo(lat[j], 6);
-      expect(rmc.longitude).toBeCloseTo(lon[j], 6);
-      expect(gga.latitude).toBeCloseTo(lat[j], 6);
-      expect(rmc.speedKnots).toBeCloseTo((spd[j] * 3600) / 1852, 2); // 1 knot = 1852 m/h
-      expect(rmc.datetime.getTime() - Date.parse(s.metadata.startedAt)).toBe(Math.round(s.timeS[j] * 1000));
+      const j = at(fixes, k);
+      expect(rmc.latitude).toBeCloseTo(at(lat, j), 6);
+      expect(rmc.longitude).toBeCloseTo(at(lon, j), 6);
+      expect(gga.latitude).toBeCloseTo(at(lat, j), 6);
+      expect(rmc.speedKnots).toBeCloseTo((at(spd, j) * 3600) / 1852, 2); // 1 knot = 1852 m/h
+      expect(rmc.datetime.getTime() - Date.parse(s.metadata.startedAt)).toBe(Math.round(at(s.timeS, j) * 1000));
       expect(gga.fixType).toBe("fix");
     }
   });
@@ -161,7 +163,7 @@ describe("NMEA 0183", () => {
   it("checksum is the XOR of the body (worked example) and a changed body fails to parse", () => {
     // Widely quoted GGA example (gpsd's NMEA notes; quoted from memory), checksum 47.
     expect(nmeaChecksum("GPGGA,123519,4807.038,N,01131.000,E,1,08,0.9,545.4,M,46.9,M,,")).toBe("47");
-    const line = toNmeaString(s).split("\r\n")[0];
+    const line = at(toNmeaString(s).split("\r\n"), 0);
     expect(() => parseNmeaSentence(line.replace(",A,", ",V,"))).toThrow();
   });
 });

@@ -6,6 +6,7 @@ import { getDistance } from "geolib";
 import { generateSession, type GeneratedSession } from "@/sample-logs/generate-session";
 import { BIKE } from "@/sample-logs/bike-model";
 import { CIRCUIT, CLOSURE_ERROR_M } from "@/sample-logs/circuit";
+import { at } from "../../fixtures/at";
 
 let s: GeneratedSession;
 const col = (role: string) => s.channels.find((c) => c.role === role)!.data;
@@ -21,8 +22,8 @@ describe("circuit", () => {
     expect(CLOSURE_ERROR_M).toBeLessThan(0.01);
     expect(CIRCUIT.lengthM).toBeGreaterThan(4000);
     expect(CIRCUIT.lengthM).toBeLessThan(4500);
-    const t1 = CIRCUIT.corners[0];
-    const t8 = CIRCUIT.corners[CIRCUIT.corners.length - 1];
+    const t1 = at(CIRCUIT.corners, 0);
+    const t8 = at(CIRCUIT.corners, CIRCUIT.corners.length - 1);
     const mainStraightM = t1.startDistanceM + (CIRCUIT.lengthM - t8.endDistanceM);
     expect(mainStraightM).toBeGreaterThan(850);
     expect(mainStraightM).toBeLessThan(950);
@@ -32,7 +33,7 @@ describe("circuit", () => {
     // geolib getDistance: spherical, R = 6 378 137 m (geolib docs) — an outside library.
     let sum = 0;
     const c = CIRCUIT.centreline;
-    for (let i = 1; i < c.length; i++) sum += getDistance(c[i - 1], c[i], 0.001);
+    for (let i = 1; i < c.length; i++) sum += getDistance(at(c, i - 1), at(c, i), 0.001);
     expect(Math.abs(sum - CIRCUIT.lengthM) / CIRCUIT.lengthM).toBeLessThan(0.002);
   });
 });
@@ -41,9 +42,9 @@ describe("laps", () => {
   it("has an out-lap, the flying laps and an in-lap, back to back", () => {
     const laps = s.truth.laps;
     expect(laps.map((l) => l.kind)).toEqual(["out", "flying", "flying", "flying", "in"]);
-    expect(laps[0].flags.outLap).toBe(true);
-    expect(laps[4].flags.inLap).toBe(true);
-    for (let k = 1; k < laps.length; k++) expect(laps[k].startS).toBe(laps[k - 1].endS);
+    expect(at(laps, 0).flags.outLap).toBe(true);
+    expect(at(laps, 4).flags.inLap).toBe(true);
+    for (let k = 1; k < laps.length; k++) expect(at(laps, k).startS).toBe(at(laps, k - 1).endS);
     for (const l of laps.filter((x) => x.kind === "flying")) {
       expect(l.lapTimeMs).toBeCloseTo((l.endS - l.startS) * 1000, 6);
       const sectors = l.sectorTimesMs!;
@@ -61,7 +62,7 @@ describe("laps", () => {
       let prev: { latitude: number; longitude: number } | null = null;
       for (let j = idx(l.startS); j <= idx(l.endS); j++) {
         if (Number.isNaN(lat[j])) continue;
-        const p = { latitude: lat[j], longitude: lon[j] };
+        const p = { latitude: at(lat, j), longitude: at(lon, j) };
         if (prev) sum += getDistance(prev, p, 0.01);
         prev = p;
       }
@@ -75,7 +76,7 @@ describe("laps", () => {
     const gate = CIRCUIT.gates.find((g) => g.name === "start_finish")!;
     const R = 6371008.8;
     const k = Math.cos((gate.a.lat * Math.PI) / 180);
-    const xy = (la: number, lo: number) => [((lo - gate.a.lon) * Math.PI * R * k) / 180, ((la - gate.a.lat) * Math.PI * R) / 180];
+    const xy = (la: number, lo: number): [number, number] => [((lo - gate.a.lon) * Math.PI * R * k) / 180, ((la - gate.a.lat) * Math.PI * R) / 180];
     const [bx, by] = xy(gate.b.lat, gate.b.lon);
     const lat = col("gps_lat"), lon = col("gps_lon");
     const found: number[] = [];
@@ -83,22 +84,22 @@ describe("laps", () => {
     for (let j = 0; j < s.timeS.length; j++) {
       if (Number.isNaN(lat[j])) continue;
       if (prevJ >= 0) {
-        const [px, py] = xy(lat[prevJ], lon[prevJ]);
-        const [qx, qy] = xy(lat[j], lon[j]);
+        const [px, py] = xy(at(lat, prevJ), at(lon, prevJ));
+        const [qx, qy] = xy(at(lat, j), at(lon, j));
         const cross = (ax: number, ay: number, cx: number, cy: number) => ax * cy - ay * cx;
         const d1 = cross(bx, by, px, py), d2 = cross(bx, by, qx, qy);
         if (d1 * d2 < 0) {
           const u = d1 / (d1 - d2);
           const ix = px + u * (qx - px), iy = py + u * (qy - py);
           const along = (ix * bx + iy * by) / (bx * bx + by * by);
-          if (along >= 0 && along <= 1) found.push(s.timeS[prevJ] + u * (s.timeS[j] - s.timeS[prevJ]));
+          if (along >= 0 && along <= 1) found.push(at(s.timeS, prevJ) + u * (at(s.timeS, j) - at(s.timeS, prevJ)));
         }
       }
       prevJ = j;
     }
     const truth = s.truth.gateCrossings.filter((g) => g.gate === "start_finish").map((g) => g.timeS);
     expect(found).toHaveLength(truth.length);
-    found.forEach((t, i) => expect(Math.abs(t - truth[i])).toBeLessThan(0.02));
+    found.forEach((t, i) => expect(Math.abs(t - at(truth, i))).toBeLessThan(0.02));
   });
 });
 
@@ -118,14 +119,14 @@ describe("bike channels", () => {
     let checked = 0;
     let worstRel = 0, minSlip = Infinity, maxSlip = -Infinity;
     for (let j = 0; j < s.timeS.length; j++) {
-      if (gear[j] < 1 || front[j] < 15) continue; // clutch fully engaged
-      const ratio = BIKE.primaryRatio * BIKE.gearRatios[gear[j] - 1] * (BIKE.rearSprocket / BIKE.frontSprocket);
-      const fromRear = (rear[j] / BIKE.rearCircumferenceM) * ratio * 60;
-      worstRel = Math.max(worstRel, Math.abs(rpm[j] - fromRear) / fromRear);
+      if (at(gear, j) < 1 || at(front, j) < 15) continue; // clutch fully engaged
+      const ratio = BIKE.primaryRatio * at(BIKE.gearRatios, at(gear, j) - 1) * (BIKE.rearSprocket / BIKE.frontSprocket);
+      const fromRear = (at(rear, j) / BIKE.rearCircumferenceM) * ratio * 60;
+      worstRel = Math.max(worstRel, Math.abs(at(rpm, j) - fromRear) / fromRear);
       // Against the front wheel, the difference is the rear slip.
-      const fromFront = (front[j] / BIKE.rearCircumferenceM) * ratio * 60;
-      minSlip = Math.min(minSlip, rpm[j] / fromFront - 1);
-      maxSlip = Math.max(maxSlip, rpm[j] / fromFront - 1);
+      const fromFront = (at(front, j) / BIKE.rearCircumferenceM) * ratio * 60;
+      minSlip = Math.min(minSlip, at(rpm, j) / fromFront - 1);
+      maxSlip = Math.max(maxSlip, at(rpm, j) / fromFront - 1);
       checked++;
     }
     expect(checked).toBeGreaterThan(20000);
@@ -141,10 +142,10 @@ describe("bike channels", () => {
       for (const c of lap.corners) {
         const corner = CIRCUIT.corners.find((x) => x.name === c.name)!;
         const j = idx(c.apexS);
-        const expected = (Math.atan((front[j] ** 2) / (G * corner.radiusM)) * 180) / Math.PI;
-        expect(Math.abs(Math.abs(lean[j]) - expected)).toBeLessThan(1.0);
+        const expected = (Math.atan((at(front, j) ** 2) / (G * corner.radiusM)) * 180) / Math.PI;
+        expect(Math.abs(Math.abs(at(lean, j)) - expected)).toBeLessThan(1.0);
         // Left-hand corners lean left (negative), right-hand corners right.
-        expect(Math.sign(lean[j])).toBe(corner.direction === "left" ? -1 : 1);
+        expect(Math.sign(at(lean, j))).toBe(corner.direction === "left" ? -1 : 1);
         checked++;
       }
     }
@@ -155,11 +156,11 @@ describe("bike channels", () => {
     const front = col("speed_front"), rear = col("speed_rear"), thr = col("throttle");
     let peak = 0;
     const straight: number[] = [];
-    for (let j = idx(s.truth.laps[1].startS); j < idx(s.truth.laps[3].endS); j++) {
-      if (front[j] < 30 / 3.6) continue;
-      const slip = (rear[j] - front[j]) / front[j]; // SAE J670 form, front wheel as ground reference
+    for (let j = idx(at(s.truth.laps, 1).startS); j < idx(at(s.truth.laps, 3).endS); j++) {
+      if (at(front, j) < 30 / 3.6) continue;
+      const slip = (at(rear, j) - at(front, j)) / at(front, j); // SAE J670 form, front wheel as ground reference
       peak = Math.max(peak, slip);
-      if (front[j] > 200 / 3.6 && thr[j] > 95) straight.push(slip);
+      if (at(front, j) > 200 / 3.6 && at(thr, j) > 95) straight.push(slip);
     }
     straight.sort((a, b) => a - b);
     expect(peak).toBeGreaterThan(0.05);
@@ -173,9 +174,9 @@ describe("bike channels", () => {
     const fork = col("fork_travel"), shock = col("shock_travel");
     let forkMax = 0, shockMax = 0, shockMin = Infinity;
     for (let j = 0; j < s.timeS.length; j++) {
-      forkMax = Math.max(forkMax, fork[j] * 1000);
-      shockMax = Math.max(shockMax, shock[j] * 1000);
-      shockMin = Math.min(shockMin, shock[j] * 1000);
+      forkMax = Math.max(forkMax, at(fork, j) * 1000);
+      shockMax = Math.max(shockMax, at(shock, j) * 1000);
+      shockMin = Math.min(shockMin, at(shock, j) * 1000);
     }
     expect(forkMax).toBeGreaterThan(95);
     expect(forkMax).toBeLessThan(BIKE.forkStrokeMm);
@@ -189,7 +190,7 @@ describe("bike channels", () => {
     const spread = Math.max(...t1) - Math.min(...t1);
     expect(spread).toBeGreaterThan(1);
     expect(spread).toBeLessThan(40);
-    for (const v of t1) expect(v).toBeLessThan(CIRCUIT.corners[0].apexDistanceM);
+    for (const v of t1) expect(v).toBeLessThan(at(CIRCUIT.corners, 0).apexDistanceM);
   });
 });
 
@@ -208,7 +209,7 @@ describe("planted events and clean laps", () => {
     for (let j = idx(e.startS); j <= idx(e.endS); j++) {
       expect(bf[j]).toBeGreaterThanOrEqual(1e5);
       expect(thr[j]).toBeGreaterThan(80);
-      peak = Math.max(peak, bf[j]);
+      peak = Math.max(peak, at(bf, j));
     }
     expect(peak).toBe(e.measured.value);
     expect(peak).toBeGreaterThan(3e5);
@@ -217,8 +218,8 @@ describe("planted events and clean laps", () => {
     expect(e.trackDistanceM).toBeGreaterThan(CIRCUIT.lengthM - 520);
     let overlapping = 0;
     for (let j = 0; j < s.timeS.length; j++) {
-      if (within(s.timeS[j], "brake_on_straight", 0.3)) continue;
-      if (thr[j] > 10 && bf[j] >= 0.5e5) overlapping++;
+      if (within(at(s.timeS, j), "brake_on_straight", 0.3)) continue;
+      if (at(thr, j) > 10 && at(bf, j) >= 0.5e5) overlapping++;
     }
     expect(overlapping).toBe(0);
   });
@@ -231,11 +232,11 @@ describe("planted events and clean laps", () => {
     let peak = 0;
     for (let j = idx(e.startS); j <= idx(e.endS); j++) {
       expect(rpm[j]).toBeGreaterThan(BIKE.revCeilingRpm);
-      peak = Math.max(peak, rpm[j]);
+      peak = Math.max(peak, at(rpm, j));
     }
     expect(peak).toBeGreaterThanOrEqual(14300);
     let maxElsewhere = 0;
-    for (let j = 0; j < s.timeS.length; j++) if (!within(s.timeS[j], "rev_ceiling")) maxElsewhere = Math.max(maxElsewhere, rpm[j]);
+    for (let j = 0; j < s.timeS.length; j++) if (!within(at(s.timeS, j), "rev_ceiling")) maxElsewhere = Math.max(maxElsewhere, at(rpm, j));
     expect(maxElsewhere).toBeLessThan(BIKE.revCeilingRpm);
     expect(maxElsewhere).toBeGreaterThan(BIKE.shiftRpm - 100); // clean shifts do reach the shift point
   });
@@ -249,11 +250,11 @@ describe("planted events and clean laps", () => {
     let peakInEvent = 0;
     for (const p of s.truth.pitLane) {
       for (let j = idx(p.fromS); j <= idx(p.toS); j++) {
-        if (within(s.timeS[j], "pit_overspeed")) {
-          peakInEvent = Math.max(peakInEvent, front[j]);
+        if (within(at(s.timeS, j), "pit_overspeed")) {
+          peakInEvent = Math.max(peakInEvent, at(front, j));
           continue;
         }
-        if (within(s.timeS[j], "pit_overspeed", 1)) continue;
+        if (within(at(s.timeS, j), "pit_overspeed", 1)) continue;
         expect(front[j]).toBeLessThanOrEqual(limit);
         if (!Number.isNaN(gps[j])) expect(gps[j]).toBeLessThanOrEqual(limit);
       }

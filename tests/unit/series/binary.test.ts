@@ -1,6 +1,7 @@
 /** The series wire format (lib/series/binary.ts): round trip, 8-byte alignment, header layout. */
 import { describe, it, expect } from "vitest";
 import { encodeSeries, decodeSeries } from "@/lib/series/binary";
+import { at } from "../../fixtures/at";
 
 describe("encodeSeries / decodeSeries", () => {
   it("round-trips Float32 and Float64 arrays bit for bit, NaN and ±Infinity included", () => {
@@ -12,15 +13,15 @@ describe("encodeSeries / decodeSeries", () => {
     expect(m).toEqual(meta);
     expect(arrays[0]).toBeInstanceOf(Float64Array);
     expect(arrays[1]).toBeInstanceOf(Float32Array);
-    expect(new Uint8Array(arrays[0].buffer, arrays[0].byteOffset, arrays[0].byteLength)).toEqual(new Uint8Array(a.buffer));
-    expect(new Uint8Array(arrays[1].buffer, arrays[1].byteOffset, arrays[1].byteLength)).toEqual(new Uint8Array(b.buffer));
-    expect(arrays[2].length).toBe(0);
-    expect(Object.is(arrays[0][3], -0)).toBe(true);
+    expect(new Uint8Array(at(arrays, 0).buffer, at(arrays, 0).byteOffset, at(arrays, 0).byteLength)).toEqual(new Uint8Array(a.buffer));
+    expect(new Uint8Array(at(arrays, 1).buffer, at(arrays, 1).byteOffset, at(arrays, 1).byteLength)).toEqual(new Uint8Array(b.buffer));
+    expect(at(arrays, 2).length).toBe(0);
+    expect(Object.is(at(arrays, 0)[3], -0)).toBe(true);
   });
 
   it("starts with the header's byte length as uint32 little-endian, then UTF-8 JSON", () => {
     const msg = encodeSeries({ hello: "wörld" }, [new Float32Array([1])]);
-    const len = msg[0] | (msg[1] << 8) | (msg[2] << 16) | (msg[3] << 24);
+    const len = at(msg, 0) | (at(msg, 1) << 8) | (at(msg, 2) << 16) | (at(msg, 3) << 24);
     const header = JSON.parse(new TextDecoder().decode(msg.subarray(4, 4 + len)));
     expect(header.v).toBe(1);
     expect(header.meta).toEqual({ hello: "wörld" });
@@ -38,7 +39,7 @@ describe("encodeSeries / decodeSeries", () => {
       expect(msg.byteLength % 8).toBe(0);
       // Views are zero-copy over the message.
       const dec = decodeSeries(msg);
-      expect(dec.arrays[1].buffer).toBe(msg.buffer);
+      expect(at(dec.arrays, 1).buffer).toBe(msg.buffer);
     }
   });
 
@@ -47,7 +48,7 @@ describe("encodeSeries / decodeSeries", () => {
     const shifted = new Uint8Array(msg.byteLength + 3);
     shifted.set(msg, 3);
     const dec = decodeSeries(shifted.subarray(3));
-    expect(Array.from(dec.arrays[0])).toEqual([42, 43]);
+    expect(Array.from(at(dec.arrays, 0))).toEqual([42, 43]);
   });
 
   it("refuses truncated or foreign messages", () => {

@@ -8,6 +8,7 @@ import { driveSlip } from "@/lib/slip/drive-slip";
 import { spinEvents } from "@/lib/slip/spin-events";
 import { cornerExitSlip } from "@/lib/slip/corner-exit-slip";
 import { slipThrottleScatter } from "@/lib/slip/slip-throttle-scatter";
+import { at } from "../../fixtures/at";
 
 const KMH = 1 / 3.6; // NIST SP 811 App. B: km/h → m/s = 1/3.6 (exact)
 
@@ -145,11 +146,11 @@ describe("spinEvents", () => {
     const slip = driveSlip(s, { zeroRatio: 1 });
     const ev = spinEvents(slip, s.channels.throttle, s.timeS, { targetSlip: 0.08, minThrottlePct: 50, minDurationS: 0.1 });
     expect(ev).toHaveLength(1);
-    expect(ev[0].startTimeS).toBeCloseTo(3.0, 9);
-    expect(ev[0].endTimeS).toBeCloseTo(3.39, 9);
+    expect(at(ev, 0).startTimeS).toBeCloseTo(3.0, 9);
+    expect(at(ev, 0).endTimeS).toBeCloseTo(3.39, 9);
     // 40 samples at 100 Hz = 0.40 s (arithmetic)
-    expect(ev[0].durationS).toBeCloseTo(0.4, 9);
-    expect(ev[0].peakSlip).toBeCloseTo(0.2, 5);
+    expect(at(ev, 0).durationS).toBeCloseTo(0.4, 9);
+    expect(at(ev, 0).peakSlip).toBeCloseTo(0.2, 5);
   });
   it("ignores spin shorter than the minimum duration and spin with a closed throttle", () => {
     const s = makeSeries({ mismatch: 0 });
@@ -179,7 +180,7 @@ describe("spinEvents: one rule for the page and the finding, and the wheelie gua
     for (let i = 0; i < 500; i++) {
       s.channels.speed_rear![i] = 50;
       s.channels.throttle![i] = 90;
-      const t = s.timeS[i];
+      const t = at(s.timeS, i);
       f[i] = t >= 3 && t < 3.6 ? 50 - 5 * (t - 3) : 50;
     }
     const slip = driveSlip(s, { zeroRatio: 1 });
@@ -202,11 +203,11 @@ describe("cornerExitSlip and slipThrottleScatter", () => {
     }
     const res = cornerExitSlip(slip, dist, t, [{ name: "A", distanceM: 100 }, { name: "B", distanceM: 200 }], { exitLengthM: 150 });
     expect(res[0]).toMatchObject({ name: "A", fromM: 100, toM: 200, peakAtM: 120, sampleCount: 100 });
-    expect(res[0].peakSlip).toBeCloseTo(0.15, 6);
+    expect(at(res, 0).peakSlip).toBeCloseTo(0.15, 6);
     // 10 samples × 0.02 s above 0.08
-    expect(res[0].timeAboveTargetS).toBeCloseTo(0.2, 9);
-    expect(res[1].peakSlip).toBeCloseTo(0.01, 6);
-    expect(res[1].toM).toBe(350);
+    expect(at(res, 0).timeAboveTargetS).toBeCloseTo(0.2, 9);
+    expect(at(res, 1).peakSlip).toBeCloseTo(0.01, 6);
+    expect(at(res, 1).toM).toBe(350);
   });
   it("drops NaN pairs and thins to the point budget", () => {
     const slip = Float32Array.from([0.1, NaN, 0.2, 0.3, 0.4, 0.5]);

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { travelFromPot } from "@/lib/suspension/travel-from-pot";
 import { suspensionUse } from "@/lib/suspension/suspension-use";
 import { bottomingEvents } from "@/lib/suspension/bottoming-events";
+import { at } from "../../fixtures/at";
 
 describe("travelFromPot", () => {
   it.each([
@@ -27,7 +28,7 @@ describe("suspensionUse", () => {
   const x = new Float32Array(n);
   for (let i = 0; i < n; i++) {
     t[i] = i * dt;
-    x[i] = 0.06 + A * Math.sin(2 * Math.PI * f * t[i]);
+    x[i] = 0.06 + A * Math.sin(2 * Math.PI * f * at(t, i));
   }
 
   it("splits the time by damping quadrant at the configured boundary", () => {
@@ -96,9 +97,9 @@ describe("bottomingEvents", () => {
     x[80] = 0.116; // below the margin → not bottoming
     const ev = bottomingEvents(x, t, 0.12, { marginM: 0.003, debounceS: 0.2 });
     expect(ev).toHaveLength(2);
-    expect(ev[0].startTimeS).toBeCloseTo(0.1, 9);
-    expect(ev[0].endTimeS).toBeCloseTo(0.15, 9);
-    expect(ev[1].peakTravelM).toBeCloseTo(0.12, 6);
+    expect(at(ev, 0).startTimeS).toBeCloseTo(0.1, 9);
+    expect(at(ev, 0).endTimeS).toBeCloseTo(0.15, 9);
+    expect(at(ev, 1).peakTravelM).toBeCloseTo(0.12, 6);
   });
 });
 
@@ -113,7 +114,7 @@ describe("suspensionUse on a pot logged slower than the master clock", () => {
   const slow = new Float32Array(n).fill(NaN);
   for (let i = 0; i < n; i++) {
     t[i] = i * dt;
-    if (i % 4 === 0) slow[i] = 0.06 + A * Math.sin(2 * Math.PI * f * t[i]);
+    if (i % 4 === 0) slow[i] = 0.06 + A * Math.sin(2 * Math.PI * f * at(t, i));
   }
 
   it("gives a real velocity histogram from the channel's own 50 Hz samples", () => {
@@ -135,14 +136,14 @@ describe("suspensionUse on a pot logged slower than the master clock", () => {
     const th = 2 * Math.PI * f * 0.02;
     const gain = (2 * Math.sin(th) + 4 * Math.sin(2 * th)) / (10 * th);
     let worst = 0;
-    for (let i = 40; i < n - 40; i += 4) worst = Math.max(worst, Math.abs(u.velocityMps[i] - gain * vmax * Math.cos(2 * Math.PI * f * t[i])));
+    for (let i = 40; i < n - 40; i += 4) worst = Math.max(worst, Math.abs(at(u.velocityMps, i) - gain * vmax * Math.cos(2 * Math.PI * f * at(t, i))));
     expect(worst / vmax).toBeLessThan(0.005);
     expect(Number.isNaN(u.velocityMps[1])).toBe(true);
   });
 
   it("sets the window in milliseconds: the same span of time at 200 Hz and at 50 Hz", () => {
     const fast = new Float32Array(n);
-    for (let i = 0; i < n; i++) fast[i] = 0.06 + A * Math.sin(2 * Math.PI * f * t[i]);
+    for (let i = 0; i < n; i++) fast[i] = 0.06 + A * Math.sin(2 * Math.PI * f * at(t, i));
     const a = suspensionUse(fast, t, { strokeM: 0.12, lowHighBoundaryMs: 0.1, velocityWindowMs: 100 });
     const b = suspensionUse(slow, t, { strokeM: 0.12, lowHighBoundaryMs: 0.1, velocityWindowMs: 100 });
     expect(a.velocityWindowSamples).toBe(21); // 100 ms / 5 ms = 20 → odd 21

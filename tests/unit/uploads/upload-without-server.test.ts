@@ -9,6 +9,7 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from
 import { createRouteHandler, UTApi } from "uploadthing/server";
 import { createLogFileRouter, memoryGrantStore, uploadDenied, type CompletedLogFile, type Uploader } from "../../../lib/uploads/file-router";
 import { makeUploadthingToken } from "../../../workers/services/upload-fake";
+import { at } from "../../fixtures/at";
 
 const INGEST = "http://ingest.lapbench.test";
 const API = "http://api.lapbench.test";
@@ -95,15 +96,15 @@ describe("log-file route handler with msw as the upload service", () => {
   it("authorised upload request: signed presigned URL, and route metadata registered with the service", async () => {
     const res = await requestUpload([{ name: "fp1.csv", size: 1234, type: "text/csv" }]);
     expect(res.status).toBe(200);
-    const [presigned] = (await res.json()) as Array<{ url: string; key: string; name: string }>;
+    const presigned = at((await res.json()) as Array<{ url: string; key: string; name: string }>, 0);
     expect(presigned.name).toBe("fp1.csv");
 
     const url = new URL(presigned.url);
     expect(`${url.origin}${url.pathname}`).toBe(`${INGEST}/${presigned.key}`);
     expect(url.searchParams.get("x-ut-file-size")).toBe("1234");
     expect(url.searchParams.get("x-ut-slug")).toBe("logFile");
-    const at = presigned.url.lastIndexOf("&signature=");
-    expect(url.searchParams.get("signature")).toBe(hmac(presigned.url.slice(0, at)));
+    const sigAt = presigned.url.lastIndexOf("&signature=");
+    expect(url.searchParams.get("signature")).toBe(hmac(presigned.url.slice(0, sigAt)));
 
     expect(seen).toEqual([
       {

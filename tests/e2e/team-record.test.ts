@@ -16,7 +16,6 @@ import Papa from "papaparse";
 import { launch, shot, appUrl, signIn, SHOTS } from "./browser";
 import { DEMO_PASSWORD, DEMO_TEAM, DEMO_USERS } from "../../workers/demo-accounts";
 import { findLatestMailTo } from "../../lib/mail/captured-mail";
-import { at } from "../fixtures/at";
 
 let browser: Browser;
 const user = (role: string) => DEMO_USERS.find((u) => u.role === role)!;
@@ -57,7 +56,7 @@ describe("season record", () => {
       expect(events.some((e) => e.includes("Spring test days"))).toBe(true);
       expect(events.findIndex((e) => e.includes("Spring test days"))).toBeLessThan(events.findIndex((e) => e.includes("Summer round")));
       const rows = table.locator('[data-testid="season-row"]');
-      const riderCol = async () => (await rows.evaluateAll((trs) => trs.map((tr) => at(tr.children, 3).textContent ?? "")));
+      const riderCol = async () => (await rows.evaluateAll((trs) => trs.map((tr) => tr.children[3]?.textContent ?? "")));
       if (role === "rider") {
         expect(new Set(await riderCol())).toEqual(new Set([user("rider").name]));
       } else {
@@ -71,7 +70,7 @@ describe("season record", () => {
       // Sort by best lap: the table library orders the column ascending on the first click.
       await table.getByRole("button", { name: /Best lap/ }).click();
       await expect(table.locator("th[aria-sort]").first().getAttribute("aria-sort")).resolves.toBe("ascending");
-      const times = (await rows.evaluateAll((trs) => trs.map((tr) => at(tr.children, 5).textContent ?? ""))).filter((t) => t !== "—");
+      const times = (await rows.evaluateAll((trs) => trs.map((tr) => tr.children[5]?.textContent ?? ""))).filter((t) => t !== "—");
       expect(times).toEqual([...times].sort());
       await page.getByTestId("progression-chart").locator("canvas").first().waitFor();
       expect(Number(await page.getByTestId("progression-chart").getAttribute("data-points"))).toBe(2);
@@ -87,7 +86,7 @@ describe("season record", () => {
     await page.getByLabel("Rider").selectOption({ label: "Jory Penhallow" });
     await page.getByRole("button", { name: "Show" }).click();
     await page.waitForURL(/rider=\d+/);
-    const riders = await page.getByTestId("season-row").evaluateAll((trs) => trs.map((tr) => at(tr.children, 3).textContent));
+    const riders = await page.getByTestId("season-row").evaluateAll((trs) => trs.map((tr) => tr.children[3]?.textContent));
     expect(riders.length).toBeGreaterThan(0);
     expect(new Set(riders)).toEqual(new Set(["Jory Penhallow"]));
     await page.context().close();

@@ -7,6 +7,7 @@ import { useState } from "react";
 import Link from "next/link";
 import { authClient } from "@/lib/auth/client";
 import { safeReturnPath } from "@/lib/http/safe-return-path";
+import { AuthField, AuthFormError } from "./auth-field";
 
 const schema = z.object({
   email: z.email("Enter the e-mail address you signed up with"),
@@ -36,21 +37,9 @@ export function SignInForm({ next }: { next?: string }) {
 
   return (
     <form onSubmit={handleSubmit(onSubmit)} className="space-y-4" noValidate>
-      <div>
-        <label className="label" htmlFor="email">E-mail</label>
-        <input id="email" type="email" autoComplete="email" className="field" {...register("email")} />
-        {formState.errors.email && <p className="mt-1 text-xs text-alert-400">{formState.errors.email.message}</p>}
-      </div>
-      <div>
-        <label className="label" htmlFor="password">Password</label>
-        <input id="password" type="password" autoComplete="current-password" className="field" {...register("password")} />
-        {formState.errors.password && <p className="mt-1 text-xs text-alert-400">{formState.errors.password.message}</p>}
-      </div>
-      {error && (
-        <p role="alert" data-testid="form-error" className="rounded-md border border-alert-500/50 bg-alert-500/10 px-3 py-2 text-sm text-alert-400">
-          {error}
-        </p>
-      )}
+      <AuthField id="email" label="E-mail" type="email" autoComplete="email" registration={register("email")} error={formState.errors.email} />
+      <AuthField id="password" label="Password" type="password" autoComplete="current-password" registration={register("password")} error={formState.errors.password} />
+      <AuthFormError error={error} />
       <button type="submit" className="btn-primary w-full" disabled={formState.isSubmitting}>
         {formState.isSubmitting ? "Signing in…" : "Sign in"}
       </button>

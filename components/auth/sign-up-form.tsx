@@ -7,6 +7,7 @@ import { useState } from "react";
 import Link from "next/link";
 import { authClient } from "@/lib/auth/client";
 import { safeReturnPath } from "@/lib/http/safe-return-path";
+import { AuthField, AuthFormError } from "./auth-field";
 
 const MIN = 10;
 const schema = z
@@ -36,36 +37,13 @@ export function SignUpForm({ next, email }: { next?: string; email?: string }) {
     router.refresh();
   }
 
-  const err = (k: keyof Values) =>
-    formState.errors[k] && <p className="mt-1 text-xs text-alert-400">{formState.errors[k]?.message}</p>;
-
   return (
     <form onSubmit={handleSubmit(onSubmit)} className="space-y-4" noValidate>
-      <div>
-        <label className="label" htmlFor="name">Name</label>
-        <input id="name" autoComplete="name" className="field" {...register("name")} />
-        {err("name")}
-      </div>
-      <div>
-        <label className="label" htmlFor="email">E-mail</label>
-        <input id="email" type="email" autoComplete="email" className="field" {...register("email")} />
-        {err("email")}
-      </div>
-      <div>
-        <label className="label" htmlFor="password">Password</label>
-        <input id="password" type="password" autoComplete="new-password" className="field" {...register("password")} />
-        {err("password")}
-      </div>
-      <div>
-        <label className="label" htmlFor="confirm">Password again</label>
-        <input id="confirm" type="password" autoComplete="new-password" className="field" {...register("confirm")} />
-        {err("confirm")}
-      </div>
-      {error && (
-        <p role="alert" data-testid="form-error" className="rounded-md border border-alert-500/50 bg-alert-500/10 px-3 py-2 text-sm text-alert-400">
-          {error}
-        </p>
-      )}
+      <AuthField id="name" label="Name" autoComplete="name" registration={register("name")} error={formState.errors.name} />
+      <AuthField id="email" label="E-mail" type="email" autoComplete="email" registration={register("email")} error={formState.errors.email} />
+      <AuthField id="password" label="Password" type="password" autoComplete="new-password" registration={register("password")} error={formState.errors.password} />
+      <AuthField id="confirm" label="Password again" type="password" autoComplete="new-password" registration={register("confirm")} error={formState.errors.confirm} />
+      <AuthFormError error={error} />
       <button type="submit" className="btn-primary w-full" disabled={formState.isSubmitting}>
         {formState.isSubmitting ? "Creating…" : "Create account"}
       </button>

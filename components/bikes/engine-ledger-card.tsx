@@ -1,5 +1,6 @@
 import type { EngineWithLedger } from "@/lib/data/engines";
 import { EngineForm } from "./bike-forms";
+import { EngineSessionFigures } from "./engine-session-figures";
 
 function pct(n: number | null): string {
   return n === null ? "—" : `${n.toFixed(0)} %`;
@@ -58,10 +59,7 @@ export function EngineLedgerCard({ engine, rpm, revCeilingRpm, editable, bikes }
               {engine.sessions.map((s) => (
                 <tr key={s.sessionId}>
                   <td>{s.title}<span className="ml-2 text-xs text-ink-400">{s.startedAt?.slice(0, 10)}</span></td>
-                  <td className="num text-right">{s.hours.toFixed(2)}</td>
-                  <td className="num text-right">{s.km.toFixed(1)}</td>
-                  <td className="num text-right">{s.timeAboveRpmS.toFixed(1)} s</td>
-                  <td className="num text-right">{s.ceilingExceedances}</td>
+                  <EngineSessionFigures s={s} />
                 </tr>
               ))}
             </tbody>

@@ -63,26 +63,17 @@ export interface SeasonRecord {
   riderOnly: boolean;
 }
 
-interface RawRow {
-  sessionId: number;
+/** A row as the query returns it: the shared columns of SeasonRow, with the driver's loose types where they differ. */
+type RawRow = Pick<
+  SeasonRow,
+  "sessionId" | "kind" | "eventId" | "eventName" | "eventDate" | "trackId" | "trackName" | "riderId" | "riderName" | "bikeId" | "bikeName" | "conditions" | "setupVersion"
+> & {
   title: string | null;
-  kind: string;
   startedAt: Date | string | null;
-  eventId: number | null;
-  eventName: string | null;
-  eventDate: string | null;
-  trackId: number | null;
-  trackName: string | null;
-  riderId: number | null;
-  riderName: string | null;
-  bikeId: number | null;
-  bikeName: string | null;
-  conditions: string | null;
-  setupVersion: number | null;
   findingsOpen: number | string;
   findingsAcknowledged: number | string;
   yr: number | null;
-}
+};
 
 /** The SQL of every visible analysed session with its names, setup version and finding counts. */
 export async function seasonBaseRows(ctx: TeamContext, where = "", params: (string | number)[] = []): Promise<RawRow[]> {

@@ -6,6 +6,7 @@ import { listBikes } from "@/lib/data/bikes";
 import { canEditSetup } from "@/lib/data/setup-access";
 import { SetupCaution } from "@/components/setup/setup-caution";
 import { MoveEngineForm, RebuildForm } from "@/components/record/engine-history-forms";
+import { EngineSessionFigures } from "@/components/bikes/engine-session-figures";
 
 export const metadata: Metadata = { title: "Engines" };
 
@@ -94,10 +95,7 @@ export default async function EnginesPage({ searchParams }: { searchParams: Prom
                           <span className="ml-2 text-xs text-ink-400">{s.startedAt?.slice(0, 10)}</span>
                         </td>
                         <td>{s.eventName ?? "—"}</td>
-                        <td className="num text-right">{s.hours.toFixed(2)}</td>
-                        <td className="num text-right">{s.km.toFixed(1)}</td>
-                        <td className="num text-right">{s.timeAboveRpmS.toFixed(1)} s</td>
-                        <td className="num text-right">{s.ceilingExceedances}</td>
+                        <EngineSessionFigures s={s} />
                       </tr>
                     ))}
                   </tbody>
